@@ -1,0 +1,91 @@
+"""Safety cautions: a standing set for any mains design, plus ones the design itself triggers.
+
+The texts are our own wording of widely taught practice; each names its basis. They are not a
+safety approval: every caution defers to local codes and a qualified person.
+"""
+
+from __future__ import annotations
+
+from .design import Check
+from .trace import Caution
+
+DEFER = ("Follow the local wiring rules (for example IEC 60364 or the national code) and the "
+         "product safety standard that applies, and have the design and the build checked by a "
+         "qualified, licensed person.")
+
+STANDING: tuple[Caution, ...] = (
+    Caution("caution.mains", "Hazardous mains voltage",
+            "The primary wiring, the fuse holder, the switch and the transformer primary "
+            "terminals carry mains voltage, which can kill. Work on them only disconnected from "
+            "the supply; keep them out of reach of a test finger inside the enclosure.",
+            "IEC 62368-1 energy class ES3 for mains circuits"),
+    Caution("caution.isolation", "Isolation",
+            "Use a safety isolating transformer for an extra-low-voltage output (IEC 61558-2-6): "
+            "it keeps reinforced or double insulation between primary and secondary. Keep "
+            "creepage and clearance distances on the board as the product standard requires; "
+            "docgen does not compute them.",
+            "IEC 61558-2-6:2021 scope; IEC 62368-1 safeguards"),
+    Caution("caution.fusing", "Fusing and switching",
+            "Fit a time-lag (T) fuse in the live conductor, first after the inlet, with the live "
+            "wire on the fuse holder's rear contact. Where plug polarity is not guaranteed use a "
+            "double-pole switch. A transformer that is not inherently short-circuit-proof needs "
+            "the fuse its label states.",
+            "P. Horowitz, W. Hill, The Art of Electronics (fuse advice); IEC 60127 fuse-links"),
+    Caution("caution.earth", "Protective earth or double insulation",
+            "A Class I enclosure must have its accessible metal bonded to protective earth with "
+            "a low-resistance connection and no fuse or switch in the earth path; the earth "
+            "conductor should break last. A Class II design relies on double or reinforced "
+            "insulation and must not rely on earth.",
+            "IEC 61140 protection classes (from memory); common practice"),
+    Caution("caution.enclosure", "Enclosure and mechanics",
+            "Use mains-rated wire and connectors, cord anchorage with strain relief, and "
+            "ventilation for the transformer and any hot parts. Observe capacitor polarity and "
+            "leave room for the capacitor vent.",
+            "common practice"),
+    Caution("caution.discharge", "Stored charge",
+            "The reservoir capacitor stays charged after the mains is removed. Check it is "
+            "discharged before touching the circuit; a bleeder resistor speeds this up.",
+            "P. Horowitz, W. Hill, The Art of Electronics (charged capacitors); common practice"),
+    Caution("caution.defer", "Local codes and licensed practice", DEFER, "common practice"),
+)
+
+SELV_DC_LIMIT = 60.0  # V, ripple-free DC limit of ES1 / extra-low voltage (IEC 62368-1, from memory)
+SELV_AC_LIMIT = 50.0  # V RMS, no-load secondary limit of a safety isolating transformer
+STORED_ENERGY_LIMIT = 20.0  # J, a stored-energy threshold used by equipment standards (from memory)
+
+
+def triggered_cautions(
+    v_dc_max: float, v_sec_nl_max: float, stored_energy: float, checks: list[Check]
+) -> list[Caution]:
+    out: list[Caution] = []
+    if v_dc_max > SELV_DC_LIMIT:
+        out.append(Caution(
+            "caution.above_elv", "Output above extra-low voltage",
+            f"The reservoir can reach {v_dc_max:.0f} V DC, above the {SELV_DC_LIMIT:.0f} V "
+            "limit of the extra-low-voltage class: the secondary side is itself hazardous and "
+            "needs the same protection against contact as the mains side.",
+            "IEC 62368-1 ES1 limit 60 V DC (class limit from memory)",
+            triggered_by="reservoir.v_max"))
+    if v_sec_nl_max > SELV_AC_LIMIT:
+        out.append(Caution(
+            "caution.secondary_not_selv", "Secondary above the safety-isolating limit",
+            f"The no-load secondary reaches {v_sec_nl_max:.0f} V RMS at high line, above the "
+            f"{SELV_AC_LIMIT:.0f} V of a safety isolating transformer's extra-low output.",
+            "IEC 61558-2-6:2021 scope (50 V AC no-load)",
+            triggered_by="transformer.v_high_nl"))
+    if stored_energy > STORED_ENERGY_LIMIT:
+        out.append(Caution(
+            "caution.stored_energy", "Stored energy in the reservoir",
+            f"The reservoir stores up to {stored_energy:.1f} J, enough to burn or weld on a "
+            "short circuit. Fit a bleeder and insulate the terminals.",
+            "stored-energy threshold of 20 J used in equipment safety standards (from memory)",
+            triggered_by="reservoir.energy"))
+    near = [c for c in checks if c.status == "warn" and c.ref]
+    for c in near:
+        out.append(Caution(
+            f"caution.near_rating.{c.id}", f"{c.ref} close to its rating",
+            f"{c.title}: only {c.margin * 100:.1f} % of the limit is left at the {c.corner} "
+            "corner. A part run this close to its rating ages faster; consider the next size up.",
+            "common practice (derating for reliability)",
+            triggered_by=c.id))
+    return out

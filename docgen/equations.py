@@ -1,0 +1,208 @@
+"""The equation catalogue: every formula docgen evaluates, written once with its source.
+
+Right-hand sides are mathtext-compatible LaTeX with ``$name`` placeholders (see docgen.trace).
+Sources follow the tags of the project's reference notes: a published work (with "from memory"
+where the location was not re-checked), "IEC ..." for standards, or "common practice" for a
+fact of the trade with no single source.
+"""
+
+from __future__ import annotations
+
+from .trace import Equation
+
+SEDRA_SMITH = "A. S. Sedra, K. C. Smith, Microelectronic Circuits (rectifier and zener sections; from memory)"
+IEC_60038 = "IEC 60038:2009 IEC standard voltages, supply voltage range +/-10 %"
+COMMON = "common practice"
+DEF = "definition"
+
+E: dict[str, Equation] = {}
+
+
+def _eq(id: str, title: str, rhs: str, params: dict[str, str], source: str, note: str = "") -> Equation:
+    eq = Equation(id=id, title=title, rhs=rhs, params=params, source=source, note=note)
+    if id in E:
+        raise ValueError(f"duplicate equation id {id}")
+    E[id] = eq
+    return eq
+
+
+# ---------------------------------------------------------------- mains
+LINE_LOW = _eq("mains.line_low", "Low-line voltage", r"$v\,(1 - $t)",
+               {"v": r"V_{nom}", "t": r"t_{lo}"}, IEC_60038)
+LINE_HIGH = _eq("mains.line_high", "High-line voltage", r"$v\,(1 + $t)",
+                {"v": r"V_{nom}", "t": r"t_{hi}"}, IEC_60038)
+SINE_PEAK = _eq("sine.peak", "Peak of a sinusoid", r"\sqrt{2}\,$v", {"v": r"V_{rms}"},
+                "sinusoid relation, any circuits text (e.g. " + SEDRA_SMITH + ")")
+RIPPLE_FREQ_FW = _eq("rectifier.ripple_frequency_fw", "Ripple frequency, full-wave", r"2\,$f",
+                     {"f": "f"}, "full-wave rectification, any circuits text (" + SEDRA_SMITH + ")")
+
+# ---------------------------------------------------------------- zener requirements
+BOUND_HIGH = _eq("tolerance.upper", "Upper bound with tolerance", r"$x\,(1 + $t)",
+                 {"x": "x", "t": "t"}, DEF)
+BOUND_LOW = _eq("tolerance.lower", "Lower bound with tolerance", r"$x\,(1 - $t)",
+                {"x": "x", "t": "t"}, DEF)
+ZENER_DT = _eq(
+    "zener.delta_t", "Largest junction temperature excursion from 25 degC",
+    r"\max(|$h - 25\,^{\circ}C|,\ |$c - 25\,^{\circ}C|)",
+    {"h": r"T_{A,max}", "c": r"T_{A,min}"},
+    "common practice: zener voltage is specified at 25 degC; self-heating neglected",
+)
+ZENER_HIGH = _eq(
+    "zener.voltage_high", "Zener voltage, upper extreme",
+    r"$v\,(1 + $t) + |$a|\,$v\,$d",
+    {"v": r"V_Z", "t": r"t_Z", "a": r"\alpha_Z", "d": r"\Delta T"},
+    "temperature coefficient definition (common practice); conservative: the temperature "
+    "term widens both extremes",
+)
+ZENER_LOW = _eq(
+    "zener.voltage_low", "Zener voltage, lower extreme",
+    r"$v\,(1 - $t) - |$a|\,$v\,$d",
+    {"v": r"V_Z", "t": r"t_Z", "a": r"\alpha_Z", "d": r"\Delta T"},
+    "temperature coefficient definition (common practice)",
+)
+ZENER_IZMIN = _eq("zener.iz_min", "Minimum zener current", r"$k\,$i",
+                  {"k": r"k_{ZK}", "i": r"I_{ZK}"},
+                  SEDRA_SMITH + "; the exercise keeps I_Z above 5 x I_ZK")
+SUM2 = _eq("sum.two", "Sum", r"$a + $b", {"a": "a", "b": "b"}, DEF)
+DIFF2 = _eq("diff.two", "Difference", r"$a - $b", {"a": "a", "b": "b"}, DEF)
+
+# ---------------------------------------------------------------- reservoir and transformer
+PEAK_FROM_VALLEY = _eq(
+    "reservoir.peak_needed", "Capacitor peak needed for a valley and ripple fraction",
+    r"\frac{$v}{1 - $r}", {"v": r"V_{valley}", "r": r"r_{ripple}"},
+    "valley = peak - ripple (" + SEDRA_SMITH + ")",
+)
+RIPPLE_FRACTION = _eq("reservoir.ripple_allowed_frac", "Ripple allowed by the ripple fraction",
+                      r"$r\,$p", {"r": r"r_{ripple}", "p": r"V_{C,pk}"}, COMMON)
+RIPPLE_THROUGH_DIVIDER = _eq(
+    "zener.ripple_in_allowed", "Input ripple allowed by the output ripple limit",
+    r"$o\,\frac{$R + $z}{$z}",
+    {"o": r"V_{r,out}", "R": "R", "z": r"r_z"},
+    SEDRA_SMITH + ": line regulation r_z / (R + r_z)",
+)
+MIN2 = _eq("min.two", "Smaller of two limits", r"\min($a,\ $b)", {"a": "a", "b": "b"}, DEF)
+MAX2 = _eq("max.two", "Larger of two values", r"\max($a,\ $b)", {"a": "a", "b": "b"}, DEF)
+SEC_PEAK_NEEDED = _eq(
+    "transformer.secondary_peak_needed", "Secondary peak needed at low line, full load",
+    r"$v + $r + 2\,$d",
+    {"v": r"V_{valley}", "r": r"V_r", "d": r"V_F"},
+    "bridge: two diode drops in the conducting path (about 1.4-2 V, common practice)",
+)
+RMS_FROM_PEAK = _eq("sine.rms", "RMS of a sinusoid from its peak", r"\frac{$v}{\sqrt{2}}",
+                    {"v": r"V_{pk}"}, "sinusoid relation, any circuits text")
+RATED_FROM_LOW_LINE = _eq(
+    "transformer.rated_needed", "Rated secondary needed at nominal mains",
+    r"\frac{$v}{1 - $t}", {"v": r"V_{sec,lo}", "t": r"t_{lo}"},
+    "secondary scales with the primary (ideal turns ratio)",
+)
+PICKED = _eq("pick.standard", "Next standard value at or above the need", r"\lceil $x \rceil_{std}",
+             {"x": "x"}, COMMON, note="chosen from the standard list named in the value title")
+SEC_RMS_CURRENT = _eq(
+    "transformer.secondary_rms_table", "Secondary RMS current of a capacitor-input bridge",
+    r"$k\,$i", {"k": r"k_{rms}", "i": r"I_{DC}"},
+    "common practice: makers' selection tables give 1.6-1.8 x I_DC for a bridge; "
+    "O. H. Schade, Proc. IRE 1943, shows the ratio depends on wCR_L and R_s/R_L",
+)
+VA_NEEDED = _eq("transformer.va", "Apparent power of the secondary", r"$v\,$i",
+                {"v": r"V_{sec}", "i": r"I_{sec,rms}"}, DEF)
+REGULATION_TYPICAL = _eq(
+    "transformer.regulation_typical", "Typical regulation for the VA rating",
+    r"\mathrm{reg}($s)", {"s": r"S"},
+    "common practice: typical regulation of small mains transformers by VA band",
+    note="interpolated on a log scale between band figures; a datasheet figure overrides it",
+)
+NO_LOAD = _eq("transformer.no_load", "No-load secondary voltage", r"$v\,(1 + $g)",
+              {"v": r"V_{sec}", "g": r"\mathrm{Reg}"},
+              "common practice: Reg = (V_NL - V_FL) / V_FL")
+SCALE = _eq("scale.ratio", "Scaled by a ratio", r"$v\,$k", {"v": "v", "k": "k"}, DEF)
+CAP_PEAK_LOW = _eq(
+    "rectifier.cap_peak", "Capacitor peak voltage",
+    r"\sqrt{2}\,$v - 2\,$d", {"v": r"V_{sec}", "d": r"V_F"},
+    SEDRA_SMITH + "; bridge loses two diode drops",
+)
+RATED_CURRENT = _eq("transformer.rated_current", "Rated secondary current", r"\frac{$s}{$v}",
+                    {"s": "S", "v": r"V_{sec}"}, DEF)
+
+# ---------------------------------------------------------------- reservoir
+CAP_FOR_RIPPLE = _eq(
+    "reservoir.capacitance", "Capacitance for the allowed ripple",
+    r"\frac{$i}{$f\,$v}", {"i": r"I_{DC}", "f": r"f_r", "v": r"V_r"},
+    SEDRA_SMITH + ": V_r = I / (f_r C); conservative by about 15-25 % at 10 % ripple",
+)
+CAP_NOMINAL_NEEDED = _eq("reservoir.nominal_needed", "Nominal capacitance covering the tolerance",
+                         r"\frac{$c}{1 - $t}", {"c": r"C_{req}", "t": r"t_C"}, DEF)
+RIPPLE = _eq(
+    "reservoir.ripple", "Peak-to-peak ripple (constant-current discharge)",
+    r"\frac{$i}{$f\,$c}", {"i": r"I_{DC}", "f": r"f_r", "c": "C"},
+    SEDRA_SMITH + ": small-ripple approximation",
+)
+DERATED_NEED = _eq("derating.rating_needed", "Rating needed after derating", r"\frac{$x}{$k}",
+                   {"x": "x", "k": r"k_{der}"}, COMMON)
+
+# ---------------------------------------------------------------- zener regulator
+ZENER_R = _eq(
+    "zener.series_resistor", "Largest series resistor keeping the zener in regulation",
+    r"\frac{$v - $z}{$l + $i}",
+    {"v": r"V_{in,min}", "z": r"V_{Z,max}", "l": r"I_{L,max}", "i": r"I_{Z,min}"},
+    SEDRA_SMITH + " (zener shunt regulator)",
+)
+PREFERRED_DOWN = _eq("eseries.down", "Preferred value at or below", r"\lfloor $x \rfloor_{E24}",
+                     {"x": "x"}, "IEC 60063:2015 E24 series")
+PREFERRED_UP = _eq("eseries.up", "Preferred value at or above", r"\lceil $x \rceil_{E6}",
+                   {"x": "x"}, "IEC 60063:2015 E6 series (usual for electrolytics, common practice)")
+ZENER_CURRENT_AT = _eq(
+    "zener.current", "Zener current", r"\frac{$v - $z}{$R} - $l",
+    {"v": r"V_{in}", "z": r"V_Z", "R": "R", "l": r"I_L"},
+    SEDRA_SMITH + " (current balance at the zener node)",
+)
+INPUT_CURRENT = _eq("zener.input_current", "Regulator input current", r"\frac{$v - $z}{$R}",
+                    {"v": r"V_{in}", "z": r"V_Z", "R": "R"}, "Ohm's law")
+POWER_VI = _eq("power.vi", "Power", r"$v\,$i", {"v": "V", "i": "I"}, DEF)
+POWER_V2R = _eq("power.v2r", "Power in a resistor", r"\frac{($a - $b)^2}{$R}",
+                {"a": r"V_a", "b": r"V_b", "R": "R"}, "Joule's law")
+DIVIDER = _eq("zener.ripple_out", "Output ripple through the R / r_z divider",
+              r"$v\,\frac{$z}{$R + $z}", {"v": r"V_r", "z": r"r_z", "R": "R"},
+              SEDRA_SMITH + ": line regulation r_z / (R + r_z)")
+RELATIVE_DEV = _eq("deviation.relative", "Relative deviation from nominal", r"\frac{$a - $n}{$n}",
+                   {"a": "V", "n": r"V_{nom}"}, DEF)
+
+# ---------------------------------------------------------------- rectifier
+PIV_BRIDGE = _eq("bridge.piv", "Peak inverse voltage per bridge diode", r"\sqrt{2}\,$v",
+                 {"v": r"V_{sec,NL,hi}"},
+                 SEDRA_SMITH + ": each blocking bridge diode sees the winding peak")
+HALF = _eq("bridge.avg_current", "Average current per bridge diode", r"\frac{$i}{2}",
+           {"i": r"I_{DC}"}, "full-wave: each diode pair conducts every other half-cycle")
+PEAK_CURRENT_FW = _eq(
+    "bridge.peak_current", "Repetitive peak diode current (ideal source)",
+    r"$i\,\left(1 + 2\pi\sqrt{\frac{$v}{2\,$r}}\right)",
+    {"i": r"I_{DC}", "v": r"V_{C,pk}", "r": r"V_r"},
+    SEDRA_SMITH + ": full-wave peak rectifier; an upper bound (no source resistance)",
+)
+CONDUCTION_ANGLE = _eq(
+    "rectifier.conduction_angle", "Conduction angle per pulse",
+    r"\arccos\left(1 - \frac{$r}{$v}\right)", {"r": r"V_r", "v": r"V_{C,pk}"},
+    SEDRA_SMITH + " (peak rectifier)",
+)
+
+# ---------------------------------------------------------------- zener regulator, self-consistent
+RIPPLE_WITH_R = _eq(
+    "zener.ripple_with_resistor", "Ripple with the regulator's own input current",
+    r"\frac{$v - $z}{$f\,$c\,$R + 1/2}",
+    {"v": r"V_{C,pk}", "z": r"V_Z", "f": r"f_r", "c": r"C_{min}", "R": "R"},
+    "derived from " + SEDRA_SMITH + ": V_r = I/(f_r C) with I = (V_pk - V_r/2 - V_Z)/R",
+)
+ZENER_R_EXACT = _eq(
+    "zener.series_resistor_exact", "Largest series resistor holding I_Z,min at the trough",
+    r"\frac{b + \sqrt{b^2 - 2\,$i\,$f\,$c\,a}}{2\,$i\,$f\,$c},\ "
+    r"a = $v - $z,\ b = a\,$f\,$c - $i/2",
+    {"v": r"V_{C,pk,lo}", "z": r"V_{Z,max}", "i": r"I_T", "f": r"f_r", "c": r"C_{min}"},
+    "derived: (V_pk - V_r - V_Z)/R = I_T with V_r from the ripple equation above "
+    "(zener shunt design of " + SEDRA_SMITH + ")",
+    note="I_T = I_L,max + I_Z,min; the larger root is the one with small ripple",
+)
+VALLEY = _eq("reservoir.valley", "Capacitor voltage at the ripple trough", r"$p - $r",
+             {"p": r"V_{C,pk}", "r": r"V_r"}, SEDRA_SMITH + ": valley = peak - ripple")
+MEAN_FROM_PEAK = _eq("reservoir.mean", "Mean capacitor voltage", r"$p - \frac{$r}{2}",
+                     {"p": r"V_{C,pk}", "r": r"V_r"}, SEDRA_SMITH)
+ENERGY = _eq("reservoir.energy", "Energy stored in the reservoir", r"\frac{1}{2}\,$c\,$v^2",
+             {"c": "C", "v": r"V_{C,max}"}, "capacitor energy, any physics text")

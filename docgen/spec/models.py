@@ -1,0 +1,264 @@
+"""The requirements file as pydantic models: validation, units and explicit defaults.
+
+Each field carries its unit and a one-line description in ``json_schema_extra``; the reference
+documentation (docs/requirements.md) and the report's requirements table are generated from them,
+so the file format is documented in one place.
+"""
+
+from __future__ import annotations
+
+from typing import Any, Literal
+
+from pydantic import BaseModel, ConfigDict, Field, model_validator
+
+from .quantities import (
+    ApparentPower,
+    Capacitance,
+    Current,
+    Duration,
+    Fraction,
+    Frequency,
+    Inductance,
+    NonNegResistance,
+    Power,
+    PositiveCurrent,
+    PositiveFraction,
+    Resistance,
+    Temperature,
+    Tempco,
+    Voltage,
+)
+
+SCHEMA_VERSION = 1
+
+
+def q(default: Any, unit: str, text: str, source: str = "") -> Any:
+    """A documented field: unit for display, description, and where its default comes from."""
+    extra = {"unit": unit}
+    if source:
+        extra["default_source"] = source
+    return Field(default=default, description=text, json_schema_extra=extra)
+
+
+class Section(BaseModel):
+    model_config = ConfigDict(extra="forbid", frozen=True, str_strip_whitespace=True)
+
+
+class Project(Section):
+    title: str = Field(min_length=1, max_length=200, description="Title printed on the cover.")
+    document_id: str = Field(min_length=1, max_length=60, description="Document number.")
+    revision: str = Field(default="A", max_length=20, description="Document revision.")
+    author: str = Field(default="", max_length=120, description="Author or team.")
+    date: str = Field(
+        default="",
+        max_length=40,
+        description="Issue date printed on the cover (kept as written; no clock is read, "
+        "so the same file gives the same document).",
+    )
+    description: str = Field(default="", max_length=2000, description="What the supply feeds.")
+    demo: bool = Field(default=False, description="Marks the file as invented demo data.")
+
+
+class Mains(Section):
+    nominal: Voltage = q(230.0, "V", "Nominal mains RMS voltage.", "IEC 60038 nominal")
+    frequency: Frequency = q(50.0, "Hz", "Mains frequency.", "IEC 60038")
+    tolerance_low: Fraction = q(
+        0.10, "%", "Low-line tolerance below nominal.", "IEC 60038 supply range +/-10 %"
+    )
+    tolerance_high: Fraction = q(
+        0.10, "%", "High-line tolerance above nominal.", "IEC 60038 supply range +/-10 %"
+    )
+
+    @model_validator(mode="after")
+    def _tolerances(self) -> Mains:
+        if self.tolerance_low >= 0.5 or self.tolerance_high >= 0.5:
+            raise ValueError("mains tolerances must be below 50 %")
+        return self
+
+
+class Environment(Section):
+    ambient_min: Temperature = q(0.0, "degC", "Lowest ambient temperature.", "common practice")
+    ambient_max: Temperature = q(40.0, "degC", "Highest ambient temperature around the parts.",
+                                 "common practice")
+
+    @model_validator(mode="after")
+    def _order(self) -> Environment:
+        if self.ambient_min > self.ambient_max:
+            raise ValueError("ambient_min is above ambient_max")
+        if not -60.0 <= self.ambient_min <= 150.0 or not -60.0 <= self.ambient_max <= 150.0:
+            raise ValueError("ambient temperatures must lie between -60 degC and 150 degC")
+        return self
+
+
+class Transformer(Section):
+    secondary: Voltage | None = q(
+        None, "V", "Fixed part: rated secondary RMS voltage at rated load and nominal mains "
+        "(sized when absent)."
+    )
+    va: ApparentPower | None = q(None, "VA", "Fixed part: rated apparent power (sized when absent).")
+    regulation: PositiveFraction | None = q(
+        None, "%", "Load regulation (V_no-load - V_full-load) / V_full-load; when absent, "
+        "a typical figure for the VA rating is used."
+    )
+    winding_resistance: NonNegResistance | None = q(
+        None, "ohm", "Secondary-referred winding resistance (estimated from VA and regulation "
+        "when absent)."
+    )
+    leakage_inductance: Inductance | None = q(
+        None, "H", "Secondary-referred leakage inductance (estimated when absent)."
+    )
+    part: str = Field(default="", max_length=80, description="Part id of the fixed transformer.")
+
+    @model_validator(mode="after")
+    def _fixed_pair(self) -> Transformer:
+        if (self.secondary is None) != (self.va is None):
+            raise ValueError("a fixed transformer needs both 'secondary' and 'va'")
+        return self
+
+
+class Rectifier(Section):
+    topology: Literal["bridge"] = Field(
+        default="bridge",
+        description="Rectifier topology. This version sizes the bridge; center-tap and "
+        "half-wave are planned.",
+    )
+    diode_drop: Voltage = q(
+        1.0, "V", "Forward drop of one diode at the charging-current peaks.",
+        "common practice: ~1 V for a silicon rectifier at its charging peaks",
+    )
+
+
+class Reservoir(Section):
+    capacitance: Capacitance | None = q(
+        None, "F", "Fixed part: reservoir capacitance (sized when absent)."
+    )
+    voltage_rating: Voltage | None = q(None, "V", "Fixed part: rated DC voltage.")
+    tolerance: Fraction = q(0.20, "%", "Capacitance tolerance (minus side used for sizing).",
+                            "common practice for aluminium electrolytics")
+    ripple_fraction: PositiveFraction = q(
+        0.10, "%", "Design ripple at the regulator input as a fraction of the peak voltage "
+        "(an upper bound; tightened when the output ripple needs it).",
+        "common practice",
+    )
+
+    @model_validator(mode="after")
+    def _bounds(self) -> Reservoir:
+        if self.tolerance >= 0.9:
+            raise ValueError("tolerance must be below 90 %")
+        if self.ripple_fraction >= 0.5:
+            raise ValueError("ripple_fraction must be below 50 %")
+        return self
+
+
+class Zener(Section):
+    voltage: Voltage | None = q(None, "V", "Zener voltage (defaults to the output voltage).")
+    tolerance: Fraction = q(0.05, "%", "Zener voltage tolerance.", "common practice (+/-5 % grade)")
+    power: Power | None = q(None, "W", "Fixed part: rated zener power (sized when absent).")
+    knee_current: PositiveCurrent = q(
+        1e-3, "A", "Knee current I_ZK below which the zener stops regulating.",
+        "common practice for small zeners",
+    )
+    min_current_factor: float = Field(
+        default=5.0, ge=1.0, le=100.0,
+        description="Minimum zener current as a multiple of the knee current.",
+        json_schema_extra={"unit": "", "default_source": "Sedra & Smith zener exercise uses 5 x I_ZK"},
+    )
+    dynamic_resistance: Resistance = q(
+        10.0, "ohm", "Dynamic resistance r_z at the operating current.",
+        "common practice for small zeners",
+    )
+    tempco: Tempco = q(
+        0.0006, "%/degC", "Temperature coefficient of the zener voltage.",
+        "common practice for zeners above about 6 V",
+    )
+
+
+class Output(Section):
+    name: str = Field(min_length=1, max_length=80, description="Name of the output rail.")
+    voltage: Voltage = q(..., "V", "Nominal output voltage.")
+    tolerance: PositiveFraction = q(0.10, "%", "Allowed output deviation, +/-.", "common practice")
+    load_min: Current = q(0.0, "A", "Minimum load current while connected.")
+    load_max: PositiveCurrent = q(..., "A", "Maximum load current.")
+    load_can_disconnect: bool = Field(
+        default=True,
+        description="True when the load can be unplugged, so the regulator sees no load.",
+    )
+    ripple_max: Voltage = q(..., "V", "Maximum output ripple, peak to peak.")
+    regulator: Literal["zener"] = Field(
+        default="zener",
+        description="Regulator kind. This version sizes the zener shunt regulator.",
+    )
+    headroom: Voltage = q(
+        3.0, "V", "Minimum drop across the series element at the ripple trough, low line, "
+        "full load.", "common practice",
+    )
+    series_resistor: Resistance | None = q(
+        None, "ohm", "Fixed part: zener series resistor (sized when absent)."
+    )
+    resistor_power: Power | None = q(None, "W", "Fixed part: series-resistor power rating.")
+    zener: Zener = Field(default_factory=Zener, description="Zener diode data.")
+
+    @model_validator(mode="after")
+    def _loads(self) -> Output:
+        if self.load_min > self.load_max:
+            raise ValueError(
+                f"load_min ({self.load_min:g} A) is above load_max ({self.load_max:g} A)"
+            )
+        if self.tolerance >= 0.5:
+            raise ValueError("tolerance must be below 50 %")
+        return self
+
+
+class Margins(Section):
+    capacitor_voltage_derating: PositiveFraction = q(
+        0.80, "%", "Highest capacitor voltage as a fraction of its rating.", "common practice"
+    )
+    zener_power_derating: PositiveFraction = q(
+        0.50, "%", "Highest zener dissipation as a fraction of its rating.", "common practice"
+    )
+    resistor_power_derating: PositiveFraction = q(
+        0.50, "%", "Highest resistor dissipation as a fraction of its rating.", "common practice"
+    )
+    diode_voltage_derating: PositiveFraction = q(
+        0.50, "%", "Highest reverse voltage as a fraction of V_RRM (V_RRM >= 2 x PIV).",
+        "common practice: V_RRM 1.5-2 x PIV for mains transients",
+    )
+    diode_current_derating: PositiveFraction = q(
+        0.50, "%", "Average diode current as a fraction of I_F(AV) (rating >= 2 x I_DC covers "
+        "the turn-on surge).", "common practice",
+    )
+    secondary_rms_factor: PositiveFraction = q(
+        1.8, "", "Secondary RMS current over DC current of a capacitor-input bridge "
+        "(used until the waveform engine replaces it).",
+        "common practice: upper end of makers' tables, 1.6-1.8",
+    )
+    warn_band: Fraction = q(
+        0.05, "%", "A check within this fraction of its limit is reported as a warning.",
+        "common practice",
+    )
+
+    @model_validator(mode="after")
+    def _bounds(self) -> Margins:
+        for name in ("capacitor_voltage_derating", "zener_power_derating",
+                     "resistor_power_derating", "diode_voltage_derating",
+                     "diode_current_derating"):
+            if getattr(self, name) > 1.0:
+                raise ValueError(f"{name} must not exceed 100 %")
+        if self.warn_band >= 1.0:
+            raise ValueError("warn_band must be below 100 %")
+        return self
+
+
+class Requirements(Section):
+    """The whole requirements file."""
+
+    schema_: Literal[1] = Field(alias="schema", description="File format version; write 1.")
+    project: Project
+    mains: Mains = Field(default_factory=Mains)
+    environment: Environment = Field(default_factory=Environment)
+    transformer: Transformer = Field(default_factory=Transformer)
+    rectifier: Rectifier = Field(default_factory=Rectifier)
+    reservoir: Reservoir = Field(default_factory=Reservoir)
+    output: list[Output] = Field(min_length=1, max_length=1,
+                                 description="The output rail (one in this version).")
+    margins: Margins = Field(default_factory=Margins)

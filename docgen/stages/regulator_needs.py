@@ -1,0 +1,75 @@
+"""What the zener shunt regulator needs from the unregulated side, before anything is sized."""
+
+from __future__ import annotations
+
+from .. import equations as eq
+from ..spec.models import Requirements
+from ..trace import Ledger
+
+TITLE = "Regulator requirements"
+INTRO = ("The zener shunt regulator needs a minimum input voltage at the ripple trough: the "
+         "highest zener voltage plus the headroom across the series resistor. Everything "
+         "upstream is sized backwards from this voltage.")
+
+
+def size_regulator_needs(spec: Requirements, L: Ledger) -> None:
+    out = spec.output[0]
+    z = out.zener
+    explicit_out = out.model_fields_set
+    explicit_z = z.model_fields_set
+    env = spec.environment
+    L.given("output.v_nom", r"V_{out}", out.voltage, "V", "Nominal output voltage")
+    L.given("output.tolerance", r"t_{out}", out.tolerance, "%", "Output voltage tolerance",
+            defaulted="tolerance" not in explicit_out)
+    L.given("output.i_max", r"I_{L,max}", out.load_max, "A", "Maximum load current")
+    L.given("output.i_min", r"I_{L,min}", out.load_min, "A", "Minimum load current (connected)",
+            defaulted="load_min" not in explicit_out)
+    L.given("output.ripple_max", r"V_{r,out,max}", out.ripple_max, "V",
+            "Output ripple limit (peak to peak)")
+    L.given("output.headroom", r"V_{hr}", out.headroom, "V",
+            "Headroom across the series resistor at the trough",
+            defaulted="headroom" not in explicit_out)
+    L.given("env.t_max", r"T_{A,max}", env.ambient_max, "degC", "Highest ambient temperature",
+            defaulted="ambient_max" not in env.model_fields_set)
+    L.given("env.t_min", r"T_{A,min}", env.ambient_min, "degC", "Lowest ambient temperature",
+            defaulted="ambient_min" not in env.model_fields_set)
+    vz = z.voltage if z.voltage is not None else out.voltage
+    L.given("zener.v_nom", r"V_Z", vz, "V", "Zener voltage (nominal)",
+            defaulted=z.voltage is None, source="" if z.voltage else "equal to the output voltage")
+    L.given("zener.tol", r"t_Z", z.tolerance, "%", "Zener voltage tolerance",
+            defaulted="tolerance" not in explicit_z)
+    L.given("zener.tempco", r"\alpha_Z", z.tempco, "%/degC", "Zener temperature coefficient",
+            defaulted="tempco" not in explicit_z)
+    L.given("zener.i_zk", r"I_{ZK}", z.knee_current, "A", "Zener knee current",
+            defaulted="knee_current" not in explicit_z)
+    L.given("zener.k_zk", r"k_{ZK}", z.min_current_factor, "",
+            "Minimum zener current as a multiple of I_ZK",
+            defaulted="min_current_factor" not in explicit_z)
+    L.given("zener.r_z", r"r_z", z.dynamic_resistance, "ohm", "Zener dynamic resistance",
+            defaulted="dynamic_resistance" not in explicit_z)
+
+    L.calc("zener.delta_t", eq.ZENER_DT, r"\Delta T_Z", "K", "Temperature excursion from 25 degC",
+           {"h": "env.t_max", "c": "env.t_min"}, lambda h, c: max(abs(h - 25.0), abs(c - 25.0)))
+    L.calc("zener.v_max", eq.ZENER_HIGH, r"V_{Z,max}", "V", "Highest zener voltage",
+           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
+           lambda v, t, a, d: v * (1 + t) + abs(a) * v * d)
+    L.calc("zener.v_min", eq.ZENER_LOW, r"V_{Z,min}", "V", "Lowest zener voltage",
+           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
+           lambda v, t, a, d: v * (1 - t) - abs(a) * v * d)
+    L.calc("zener.i_min", eq.ZENER_IZMIN, r"I_{Z,min}", "A", "Minimum zener current",
+           {"k": "zener.k_zk", "i": "zener.i_zk"}, lambda k, i: k * i)
+    L.calc("regulator.v_in_min_needed", eq.SUM2, r"V_{in,min}", "V",
+           "Input voltage needed at the trough", {"a": "zener.v_max", "b": "output.headroom"},
+           lambda a, b: a + b)
+    L.calc("regulator.i_in_design", eq.SUM2, r"I_{in}", "A",
+           "Regulator input current at full load (design)",
+           {"a": "output.i_max", "b": "zener.i_min"}, lambda a, b: a + b)
+    L.calc("regulator.r_target", eq.ZENER_R, r"R_{target}", "ohm",
+           "Series resistor if the trough sat exactly at the needed input voltage",
+           {"v": "regulator.v_in_min_needed", "z": "zener.v_max", "l": "output.i_max",
+            "i": "zener.i_min"},
+           lambda v, z, l, i: (v - z) / (l + i))
+    L.calc("regulator.ripple_in_allowed", eq.RIPPLE_THROUGH_DIVIDER, r"V_{r,in,out}", "V",
+           "Input ripple the output ripple limit allows",
+           {"o": "output.ripple_max", "R": "regulator.r_target", "z": "zener.r_z"},
+           lambda o, R, z: o * (R + z) / z)

@@ -1,0 +1,118 @@
+"""Transformer: the secondary voltage needed at low line and full load, then a standard rating."""
+
+from __future__ import annotations
+
+import math
+
+from .. import equations as eq
+from .. import standards
+from ..errors import InfeasibleDesign
+from ..spec.models import Requirements
+from ..trace import Ledger
+
+TITLE = "Transformer"
+INTRO = ("The rated secondary voltage is specified at rated load and nominal mains, so the "
+         "low-line, full-load secondary is the rated voltage scaled by the low-line ratio. The "
+         "capacitor peak must cover the regulator's trough voltage, the ripple and two diode "
+         "drops. The no-load voltage is higher by the transformer's regulation.")
+
+
+def size_transformer(spec: Requirements, L: Ledger, va_floor: float = 0.0) -> None:
+    """Pick (or take) the secondary voltage and VA rating.
+
+    ``va_floor`` lets the pipeline raise the VA rating after the regulator is sized, when the
+    actual secondary current turns out above the first estimate.
+    """
+    t = spec.transformer
+    res = spec.reservoir
+    L.given("rect.v_f", r"V_F", spec.rectifier.diode_drop, "V",
+            "Diode forward drop at the charging peaks",
+            defaulted="diode_drop" not in spec.rectifier.model_fields_set)
+    L.given("reservoir.ripple_fraction", r"r_{ripple}", res.ripple_fraction, "%",
+            "Design ripple as a fraction of the capacitor peak",
+            defaulted="ripple_fraction" not in res.model_fields_set)
+    L.calc("reservoir.v_pk_by_fraction", eq.PEAK_FROM_VALLEY, r"V_{C,pk,frac}", "V",
+           "Capacitor peak needed with the design ripple fraction",
+           {"v": "regulator.v_in_min_needed", "r": "reservoir.ripple_fraction"},
+           lambda v, r: v / (1 - r))
+    L.calc("reservoir.ripple_by_fraction", eq.DIFF2, r"V_{r,frac}", "V",
+           "Ripple allowed by the ripple fraction",
+           {"a": "reservoir.v_pk_by_fraction", "b": "regulator.v_in_min_needed"},
+           lambda a, b: a - b)
+    L.calc("reservoir.ripple_allowed", eq.MIN2, r"V_{r,allow}", "V",
+           "Ripple allowed at the regulator input",
+           {"a": "reservoir.ripple_by_fraction", "b": "regulator.ripple_in_allowed"},
+           lambda a, b: min(a, b))
+    L.calc("transformer.v_pk_needed", eq.SEC_PEAK_NEEDED, r"V_{sec,pk,lo}", "V",
+           "Secondary peak needed at low line, full load",
+           {"v": "regulator.v_in_min_needed", "r": "reservoir.ripple_allowed", "d": "rect.v_f"},
+           lambda v, r, d: v + r + 2 * d)
+    L.calc("transformer.v_rms_low_needed", eq.RMS_FROM_PEAK, r"V_{sec,lo}", "V",
+           "Secondary RMS needed at low line, full load",
+           {"v": "transformer.v_pk_needed"}, lambda v: v / math.sqrt(2))
+    L.calc("transformer.v_rated_needed", eq.RATED_FROM_LOW_LINE, r"V_{sec,req}", "V",
+           "Rated secondary needed (nominal mains, rated load)",
+           {"v": "transformer.v_rms_low_needed", "t": "mains.tol_low"},
+           lambda v, t: v / (1 - t))
+    L.calc("transformer.i_rms_est", eq.SEC_RMS_CURRENT, r"I_{sec,rms,est}", "A",
+           "Secondary RMS current estimate (table ratio)",
+           {"k": "margins.secondary_rms_factor", "i": "regulator.i_in_design"},
+           lambda k, i: k * i)
+
+    if t.secondary is not None:
+        L.given("transformer.v_rated", r"V_{sec}", t.secondary, "V",
+                "Rated secondary voltage (fixed part)")
+        L.given("transformer.va", "S", t.va, "VA", "Rated apparent power (fixed part)")
+    else:
+        need = L["transformer.v_rated_needed"]
+        try:
+            standards.next_at_or_above(need, standards.SECONDARY_VOLTAGES)
+        except standards.NoStandardValue:
+            raise InfeasibleDesign(
+                f"the output needs a rated secondary of {need:.1f} V, above the largest standard "
+                f"secondary ({standards.SECONDARY_VOLTAGES[-1]:g} V) this version sizes"
+            ) from None
+        L.calc("transformer.v_rated", eq.PICKED, r"V_{sec}", "V",
+               "Rated secondary voltage (standard step)",
+               {"x": "transformer.v_rated_needed"},
+               lambda x: standards.next_at_or_above(x, standards.SECONDARY_VOLTAGES))
+        L.calc("transformer.va_needed", eq.VA_NEEDED, r"S_{req}", "VA",
+               "Apparent power needed", {"v": "transformer.v_rated", "i": "transformer.i_rms_est"},
+               lambda v, i: v * i)
+        L.given("transformer.va_floor", r"S_{floor}", va_floor, "VA",
+                "Apparent power floor from the actual secondary current (second pass)",
+                source="pipeline: raised when the sized regulator draws more than estimated")
+        L.calc("transformer.va_sized", eq.MAX2, r"S_{need}", "VA", "Apparent power to provide",
+               {"a": "transformer.va_needed", "b": "transformer.va_floor"}, lambda a, b: max(a, b))
+        try:
+            standards.next_at_or_above(L["transformer.va_sized"], standards.TRANSFORMER_VA)
+        except standards.NoStandardValue:
+            raise InfeasibleDesign(
+                f"the design needs {L['transformer.va_sized']:.0f} VA, above the largest "
+                f"standard transformer ({standards.TRANSFORMER_VA[-1]:g} VA)"
+            ) from None
+        L.calc("transformer.va", eq.PICKED, "S", "VA", "Rated apparent power (standard step)",
+               {"x": "transformer.va_sized"},
+               lambda x: standards.next_at_or_above(x, standards.TRANSFORMER_VA))
+
+    if t.regulation is not None:
+        L.given("transformer.regulation", r"\mathrm{Reg}", t.regulation, "%",
+                "Transformer regulation (from the file)")
+    else:
+        L.calc("transformer.regulation", eq.REGULATION_TYPICAL, r"\mathrm{Reg}", "%",
+               "Transformer regulation (typical for the rating)", {"s": "transformer.va"},
+               lambda s: standards.typical_regulation(s))
+    L.calc("transformer.i_rated", eq.RATED_CURRENT, r"I_{sec,rated}", "A",
+           "Rated secondary current", {"s": "transformer.va", "v": "transformer.v_rated"},
+           lambda s, v: s / v)
+    L.calc("transformer.v_nl", eq.NO_LOAD, r"V_{sec,NL}", "V", "No-load secondary (nominal mains)",
+           {"v": "transformer.v_rated", "g": "transformer.regulation"}, lambda v, g: v * (1 + g))
+    L.calc("transformer.v_low_fl", eq.LINE_LOW, r"V_{sec,lo}", "V",
+           "Secondary at low line, full load", {"v": "transformer.v_rated", "t": "mains.tol_low"},
+           lambda v, t: v * (1 - t))
+    L.calc("transformer.v_high_fl", eq.LINE_HIGH, r"V_{sec,hi}", "V",
+           "Secondary at high line, rated load", {"v": "transformer.v_rated", "t": "mains.tol_high"},
+           lambda v, t: v * (1 + t))
+    L.calc("transformer.v_high_nl", eq.LINE_HIGH, r"V_{sec,NL,hi}", "V",
+           "Secondary at high line, no load", {"v": "transformer.v_nl", "t": "mains.tol_high"},
+           lambda v, t: v * (1 + t))

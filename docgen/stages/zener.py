@@ -1,0 +1,150 @@
+"""Zener shunt regulator: series resistor, zener current and dissipation at the worst corners."""
+
+from __future__ import annotations
+
+import math
+
+from .. import equations as eq
+from .. import standards
+from ..errors import InfeasibleDesign
+from ..parts.eseries import preferred
+from ..spec.models import Requirements
+from ..trace import Ledger
+
+TITLE = "Zener shunt regulator"
+INTRO = ("The series resistor is the largest value that still keeps the minimum zener current "
+         "at the ripple trough with low line, full load and the lowest capacitance; it is "
+         "rounded down to the E24 series. The zener's worst case is high line with the load "
+         "at its minimum (or disconnected): the whole input current then flows in the zener. A shunt "
+         "regulator draws about the same current at any load, so the transformer is taken at "
+         "its rated load for these currents; the no-load voltage is kept for voltage ratings.")
+
+
+def _r_max(v: float, z: float, i: float, f: float, c: float) -> float:
+    a = v - z
+    b = a * f * c - i / 2
+    disc = b * b - 2 * i * f * c * a
+    if a <= 0 or disc < 0 or b <= 0:
+        return float("nan")
+    return (b + math.sqrt(disc)) / (2 * i * f * c)
+
+
+def size_zener(spec: Requirements, L: Ledger) -> None:
+    out = spec.output[0]
+    m = spec.margins
+    L.calc("regulator.i_trough", eq.SUM2, r"I_T", "A", "Input current at the trough, full load",
+           {"a": "output.i_max", "b": "zener.i_min"}, lambda a, b: a + b)
+    if out.series_resistor is not None:
+        L.given("zener.r", "R", out.series_resistor, "ohm", "Series resistor (fixed part)")
+    else:
+        r_max = _r_max(L["reservoir.v_pk_low"], L["zener.v_max"], L["regulator.i_trough"],
+                       L["mains.ripple_freq"], L["reservoir.c_min"])
+        if not math.isfinite(r_max) or r_max <= 0:
+            raise InfeasibleDesign(
+                f"at low line and full load the capacitor peaks at "
+                f"{L['reservoir.v_pk_low']:.2f} V, too little to hold the zener "
+                f"({L['zener.v_max']:.2f} V at its upper extreme) in regulation while it "
+                f"supplies {L['regulator.i_trough'] * 1e3:.1f} mA; a larger secondary voltage "
+                "is needed"
+            )
+        L.calc("zener.r_max", eq.ZENER_R_EXACT, r"R_{max}", "ohm",
+               "Largest series resistor keeping I_Z,min at the trough",
+               {"v": "reservoir.v_pk_low", "z": "zener.v_max", "i": "regulator.i_trough",
+                "f": "mains.ripple_freq", "c": "reservoir.c_min"}, _r_max)
+        L.calc("zener.r", eq.PREFERRED_DOWN, "R", "ohm", "Series resistor (E24, rounded down)",
+               {"x": "zener.r_max"}, lambda x: preferred(x, "E24", "down"))
+
+    # Low line, full load, lowest capacitance: the trough.
+    L.calc("reservoir.ripple_low", eq.RIPPLE_WITH_R, r"V_{r,lo}", "V",
+           "Ripple at low line, full load",
+           {"v": "reservoir.v_pk_low", "z": "zener.v_max", "f": "mains.ripple_freq",
+            "c": "reservoir.c_min", "R": "zener.r"},
+           lambda v, z, f, c, R: (v - z) / (f * c * R + 0.5))
+    L.calc("reservoir.valley_low", eq.VALLEY, r"V_{C,min}", "V",
+           "Capacitor trough at low line, full load",
+           {"p": "reservoir.v_pk_low", "r": "reservoir.ripple_low"}, lambda p, r: p - r)
+    L.calc("regulator.headroom_low", eq.DIFF2, r"V_{R,min}", "V",
+           "Drop across R at the trough (headroom)",
+           {"a": "reservoir.valley_low", "b": "zener.v_max"}, lambda a, b: a - b)
+    L.calc("zener.i_z_trough", eq.ZENER_CURRENT_AT, r"I_{Z,trough}", "A",
+           "Zener current at the trough, low line, full load",
+           {"v": "reservoir.valley_low", "z": "zener.v_max", "R": "zener.r", "l": "output.i_max"},
+           lambda v, z, R, l: (v - z) / R - l)
+
+    # High line, no load: the zener's worst case.
+    L.calc("reservoir.ripple_high", eq.RIPPLE_WITH_R, r"V_{r,hi}", "V",
+           "Ripple at high line (largest input current)",
+           {"v": "reservoir.v_pk_high", "z": "zener.v_min", "f": "mains.ripple_freq",
+            "c": "reservoir.c_min", "R": "zener.r"},
+           lambda v, z, f, c, R: (v - z) / (f * c * R + 0.5))
+    L.calc("reservoir.v_mean_high", eq.MEAN_FROM_PEAK, r"V_{C,mean,hi}", "V",
+           "Mean capacitor voltage at high line",
+           {"p": "reservoir.v_pk_high", "r": "reservoir.ripple_high"}, lambda p, r: p - r / 2)
+    L.calc("regulator.i_in_max", eq.INPUT_CURRENT, r"I_{in,max}", "A",
+           "Regulator input current at high line",
+           {"v": "reservoir.v_mean_high", "z": "zener.v_min", "R": "zener.r"},
+           lambda v, z, R: (v - z) / R)
+    disconnect = out.load_can_disconnect
+    L.given("output.i_min_worst", r"I_{L,least}", 0.0 if disconnect else out.load_min, "A",
+            "Least load current the zener must absorb",
+            source="load can be disconnected" if disconnect else "load_min")
+    L.calc("zener.i_z_max", eq.DIFF2, r"I_{Z,max}", "A",
+           "Zener current at high line, least load",
+           {"a": "regulator.i_in_max", "b": "output.i_min_worst"}, lambda a, b: a - b)
+    L.calc("zener.p", eq.POWER_VI, r"P_{Z,max}", "W", "Zener dissipation, worst case",
+           {"v": "zener.v_max", "i": "zener.i_z_max"}, lambda v, i: v * i)
+    L.calc("zener.r_p", eq.POWER_V2R, r"P_{R,max}", "W", "Series-resistor dissipation, worst case",
+           {"a": "reservoir.v_mean_high", "b": "zener.v_min", "R": "zener.r"},
+           lambda a, b, R: (a - b) ** 2 / R)
+    L.calc("output.ripple", eq.DIVIDER, r"V_{r,out}", "V", "Output ripple (high line, worst)",
+           {"v": "reservoir.ripple_high", "z": "zener.r_z", "R": "zener.r"},
+           lambda v, z, R: v * z / (R + z))
+
+    # Ratings: fixed parts are taken, others rounded to the next standard class.
+    L.given("margins.zener_power", r"k_{Z,P}", m.zener_power_derating, "%",
+            "Zener power derating", defaulted="zener_power_derating" not in m.model_fields_set)
+    L.given("margins.resistor_power", r"k_{R,P}", m.resistor_power_derating, "%",
+            "Resistor power derating",
+            defaulted="resistor_power_derating" not in m.model_fields_set)
+    L.calc("zener.p_rating_needed", eq.DERATED_NEED, r"P_{Z,rated,req}", "W",
+           "Zener power rating needed", {"x": "zener.p", "k": "margins.zener_power"},
+           lambda x, k: x / k)
+    L.calc("zener.r_p_rating_needed", eq.DERATED_NEED, r"P_{R,rated,req}", "W",
+           "Resistor power rating needed", {"x": "zener.r_p", "k": "margins.resistor_power"},
+           lambda x, k: x / k)
+    if out.zener.power is not None:
+        L.given("zener.p_rating", r"P_{Z,rated}", out.zener.power, "W", "Zener power rating (fixed)")
+    else:
+        _pick(L, "zener.p_rating", r"P_{Z,rated}", "Zener power rating (standard class)",
+              "zener.p_rating_needed", standards.ZENER_POWERS, "zener")
+    if out.resistor_power is not None:
+        L.given("zener.r_p_rating", r"P_{R,rated}", out.resistor_power, "W",
+                "Resistor power rating (fixed)")
+    else:
+        _pick(L, "zener.r_p_rating", r"P_{R,rated}", "Resistor power rating (standard class)",
+              "zener.r_p_rating_needed", standards.RESISTOR_POWERS, "series resistor")
+    L.calc("zener.p_allowed", eq.SCALE, r"P_{Z,allow}", "W", "Zener dissipation allowed (derated)",
+           {"v": "zener.p_rating", "k": "margins.zener_power"}, lambda v, k: v * k)
+    L.calc("zener.r_p_allowed", eq.SCALE, r"P_{R,allow}", "W",
+           "Resistor dissipation allowed (derated)",
+           {"v": "zener.r_p_rating", "k": "margins.resistor_power"}, lambda v, k: v * k)
+
+    # Output voltage window.
+    L.calc("output.v_upper_limit", eq.BOUND_HIGH, r"V_{out,hi,lim}", "V", "Output upper limit",
+           {"x": "output.v_nom", "t": "output.tolerance"}, lambda x, t: x * (1 + t))
+    L.calc("output.v_lower_limit", eq.BOUND_LOW, r"V_{out,lo,lim}", "V", "Output lower limit",
+           {"x": "output.v_nom", "t": "output.tolerance"}, lambda x, t: x * (1 - t))
+
+
+def _pick(L: Ledger, value_id: str, symbol: str, title: str, need_id: str,
+          steps: tuple[float, ...], what: str) -> None:
+    try:
+        standards.next_at_or_above(L[need_id], steps)
+    except standards.NoStandardValue:
+        raise InfeasibleDesign(
+            f"the {what} must dissipate so much that it needs a {L[need_id]:.1f} W rating, "
+            f"above the largest standard class ({steps[-1]:g} W); a series-pass regulator "
+            "suits this load better"
+        ) from None
+    L.calc(value_id, eq.PICKED, symbol, "W", title, {"x": need_id},
+           lambda x: standards.next_at_or_above(x, steps))

@@ -1,0 +1,61 @@
+"""Standard ratings that sized values are rounded to when no parts library is given.
+
+These are the usual catalogue steps of the trade (common practice, no single source); a parts
+library, when given, replaces them with real parts.
+"""
+
+from __future__ import annotations
+
+import bisect
+
+# Rated secondary RMS voltages of small mains transformers, V.
+SECONDARY_VOLTAGES = (6.0, 7.5, 9.0, 12.0, 15.0, 18.0, 20.0, 24.0, 30.0, 36.0, 48.0)
+# Apparent-power ratings of small mains transformers, VA.
+TRANSFORMER_VA = (0.5, 1.0, 1.5, 2.0, 3.0, 5.0, 6.0, 8.0, 10.0, 12.0, 15.0, 20.0, 25.0, 30.0,
+                  50.0, 80.0, 100.0, 160.0, 250.0, 300.0, 500.0)
+# Rated DC voltages of aluminium electrolytic capacitors, V.
+CAPACITOR_VOLTAGES = (6.3, 10.0, 16.0, 25.0, 35.0, 50.0, 63.0, 80.0, 100.0, 160.0, 200.0,
+                      250.0, 350.0, 400.0, 450.0)
+# Power classes of zener diodes, W.
+ZENER_POWERS = (0.5, 1.0, 1.3, 3.0, 5.0)
+# Power ratings of through-hole resistors, W.
+RESISTOR_POWERS = (0.25, 0.5, 0.6, 1.0, 2.0, 3.0, 5.0, 7.0, 10.0)
+# Repetitive peak reverse voltage classes of silicon rectifiers and bridges, V.
+DIODE_VRRM = (50.0, 100.0, 200.0, 400.0, 600.0, 800.0, 1000.0)
+# Average forward current classes of rectifier bridges, A, with a typical 8.3 ms half-sine
+# surge rating for each class (common practice, no source: typical datasheet figures).
+BRIDGE_CURRENT_CLASSES = ((0.5, 20.0), (1.0, 30.0), (1.5, 50.0), (2.0, 60.0), (3.0, 80.0),
+                          (4.0, 120.0), (6.0, 175.0), (8.0, 200.0), (10.0, 250.0))
+
+# Typical load regulation of small mains transformers by VA (common practice, no source;
+# band figures from makers' notes, upper part of each band so maxima stay conservative).
+TYPICAL_REGULATION = ((1.0, 0.50), (3.0, 0.35), (5.0, 0.25), (10.0, 0.22), (15.0, 0.18),
+                      (30.0, 0.13), (50.0, 0.11), (80.0, 0.09), (160.0, 0.07), (500.0, 0.05))
+
+
+class NoStandardValue(ValueError):
+    """The need is above every standard value in the list."""
+
+
+def next_at_or_above(need: float, values: tuple[float, ...]) -> float:
+    """Smallest standard value >= need (with a relative tolerance of 1e-9)."""
+    i = bisect.bisect_left(values, need * (1 - 1e-9))
+    if i >= len(values):
+        raise NoStandardValue(f"{need:g} is above the largest standard value {values[-1]:g}")
+    return values[i]
+
+
+def typical_regulation(va: float) -> float:
+    """Regulation interpolated on log(VA) between the band figures; clamped at the ends."""
+    import math
+
+    points = TYPICAL_REGULATION
+    if va <= points[0][0]:
+        return points[0][1]
+    if va >= points[-1][0]:
+        return points[-1][1]
+    for (s0, r0), (s1, r1) in zip(points, points[1:]):
+        if s0 <= va <= s1:
+            w = (math.log(va) - math.log(s0)) / (math.log(s1) - math.log(s0))
+            return r0 + w * (r1 - r0)
+    raise AssertionError("unreachable")

@@ -1,0 +1,187 @@
+"""Traced values: every number in the document carries the equation and inputs that produced it.
+
+An :class:`Equation` is written once (in :mod:`docgen.equations`) with a right-hand side template
+whose ``$name`` placeholders stand for its parameters. Evaluating it through a :class:`Ledger`
+binds each parameter to an earlier traced value, computes the result with a Python function
+written beside the template, and stores a :class:`TracedValue` holding the symbolic form, the
+substituted form and the ids of the inputs. Code and formula sit side by side so they cannot
+drift apart unnoticed.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass, field
+from string import Template
+
+from .units import format_quantity
+
+
+@dataclass(frozen=True)
+class Equation:
+    """A formula written once and cited many times."""
+
+    id: str  # "reservoir.capacitance"
+    title: str
+    rhs: str  # LaTeX right-hand side with $param placeholders
+    params: Mapping[str, str]  # param -> generic LaTeX symbol, for the catalogue form
+    source: str  # "Sedra & Smith, Microelectronic Circuits, peak rectifier" or "common practice"
+    note: str = ""  # validity, assumptions
+
+    def generic_latex(self, lhs: str) -> str:
+        return f"{lhs} = " + Template(self.rhs).substitute(self.params)
+
+
+@dataclass(frozen=True)
+class TracedValue:
+    """One number of the design with its provenance."""
+
+    id: str  # results.json key and HTML anchor
+    symbol: str  # LaTeX symbol, e.g. "V_{pk,lo}"
+    value: float  # SI (temperatures in degC)
+    unit: str
+    title: str
+    equation: str  # Equation.id, or "given" / "default" for inputs
+    latex: str = ""  # symbolic form with this evaluation's symbols
+    substituted: str = ""  # the same with input values filled in
+    inputs: tuple[str, ...] = ()
+    source: str = ""  # for inputs: "requirements file" or "default (common practice)"
+    stage: str = ""
+
+
+@dataclass(frozen=True)
+class Assumption:
+    id: str
+    text: str
+    source: str
+
+
+@dataclass(frozen=True)
+class Caution:
+    id: str
+    title: str
+    text: str
+    source: str
+    triggered_by: str = ""  # value or check id for design-triggered cautions; "" if standing
+
+
+def latex_number(value: float, unit: str) -> str:
+    """A value with its unit for use inside LaTeX (mathtext): '207\\,\\mathrm{V}'."""
+    text = format_quantity(value, unit)
+    if " " in text:
+        number, shown_unit = text.split(" ", 1)
+    else:
+        number, shown_unit = text, ""
+    shown_unit = (
+        shown_unit.replace("\u00b5", r"\mu ")
+        .replace("\u03a9", r"\Omega")
+        .replace("\u00b0C", r"^{\circ}C")
+        .replace("%", r"\%")
+        .replace("\u00b2", "^2")
+    )
+    if not shown_unit:
+        return number
+    return rf"{number}\,\mathrm{{{shown_unit}}}"
+
+
+class TraceError(RuntimeError):
+    """A programming error in a stage: unknown input id, duplicate id, non-finite result."""
+
+
+@dataclass
+class Ledger:
+    """Collects the traced values of one design in the order they were computed."""
+
+    values: dict[str, TracedValue] = field(default_factory=dict)
+    equations: dict[str, Equation] = field(default_factory=dict)
+    stage: str = ""
+
+    def __getitem__(self, value_id: str) -> float:
+        return self.values[value_id].value
+
+    def __contains__(self, value_id: str) -> bool:
+        return value_id in self.values
+
+    def _store(self, tv: TracedValue) -> float:
+        if tv.id in self.values:
+            raise TraceError(f"value id {tv.id!r} computed twice")
+        if not (isinstance(tv.value, float) and math.isfinite(tv.value)):
+            raise TraceError(f"value {tv.id!r} is not a finite float: {tv.value!r}")
+        self.values[tv.id] = tv
+        return tv.value
+
+    def given(
+        self,
+        value_id: str,
+        symbol: str,
+        value: float,
+        unit: str,
+        title: str,
+        *,
+        defaulted: bool = False,
+        source: str = "",
+    ) -> float:
+        """Record an input taken from the requirements file (or its documented default)."""
+        return self._store(
+            TracedValue(
+                id=value_id,
+                symbol=symbol,
+                value=float(value),
+                unit=unit,
+                title=title,
+                equation="default" if defaulted else "given",
+                source=source or ("default" if defaulted else "requirements file"),
+                stage=self.stage,
+            )
+        )
+
+    def calc(
+        self,
+        value_id: str,
+        equation: Equation,
+        symbol: str,
+        unit: str,
+        title: str,
+        inputs: Mapping[str, str],
+        fn: Callable[..., float],
+    ) -> float:
+        """Evaluate ``fn`` on the values of ``inputs`` and record the result with its trace.
+
+        ``inputs`` maps each equation parameter to the id of an earlier traced value.
+        """
+        if set(inputs) != set(equation.params):
+            raise TraceError(
+                f"{value_id}: inputs {sorted(inputs)} do not match parameters of "
+                f"{equation.id} {sorted(equation.params)}"
+            )
+        missing = [vid for vid in inputs.values() if vid not in self.values]
+        if missing:
+            raise TraceError(f"{value_id}: unknown input ids {missing}")
+        self.equations.setdefault(equation.id, equation)
+        args = {p: self.values[vid].value for p, vid in inputs.items()}
+        result = float(fn(**args))
+        rhs = Template(equation.rhs)
+        symbolic = rhs.substitute({p: self.values[vid].symbol for p, vid in inputs.items()})
+        substituted = rhs.substitute(
+            {p: latex_number(self.values[vid].value, self.values[vid].unit)
+             for p, vid in inputs.items()}
+        )
+        return self._store(
+            TracedValue(
+                id=value_id,
+                symbol=symbol,
+                value=result,
+                unit=unit,
+                title=title,
+                equation=equation.id,
+                latex=f"{symbol} = {symbolic}",
+                substituted=f"{symbol} = {substituted} = {latex_number(result, unit)}",
+                inputs=tuple(dict.fromkeys(inputs.values())),
+                source=equation.source,
+                stage=self.stage,
+            )
+        )
+
+    def ids_for_stage(self, stage: str) -> list[str]:
+        return [v.id for v in self.values.values() if v.stage == stage]
