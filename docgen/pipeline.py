@@ -13,6 +13,7 @@ from .spec.models import Requirements
 from .stages import mains, rectifier, regulator_needs, reservoir, transformer, zener
 from .trace import Assumption, Ledger
 from .units import format_quantity as fq
+from .waveform_ideal import ideal_bridge_zener
 
 STAGES = (
     (mains, mains.size_mains),
@@ -164,6 +165,11 @@ def run(loaded: LoadedSpec) -> Design:
            "Capacitor voltage allowed (derated)",
            {"v": "reservoir.v_rating", "k": "margins.cap_voltage"}, lambda v, k: v * k)
     checks = _checks(spec, L)
+    waveforms = {
+        "low_line_full_load": ideal_bridge_zener(
+            v_pk_sec=2**0.5 * L["transformer.v_low_fl"], v_f=L["rect.v_f"], freq=L["mains.freq"],
+            c=L["reservoir.c_min"], r=L["zener.r"], v_z=L["zener.v_max"]),
+    }
     cautions = list(STANDING) + triggered_cautions(
         L["reservoir.v_max"], L["transformer.v_high_nl"], L["reservoir.energy"], checks)
     stages = [Stage("margins", "Design margins", "Derating factors and design ratios used below.")]
@@ -182,4 +188,5 @@ def run(loaded: LoadedSpec) -> Design:
         cautions=cautions,
         status=overall_status(checks),
         tool_version=__version__,
+        waveforms=waveforms,
     )

@@ -1,0 +1,167 @@
+"""Command line: thin layer that parses arguments, calls the pipeline and maps errors to exit codes.
+
+Exit codes: 0 every check passes (warnings allowed unless --strict), 1 a check fails or the design
+is infeasible, 2 the input is invalid or the outputs could not be written.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from . import __version__
+from .errors import DocgenError
+
+EPILOG = """\
+examples:
+  docgen new > my-supply.toml          write a commented starter requirements file
+  docgen check specs/my-supply.toml    size and check; prints failing and marginal checks
+  docgen build specs/ -o out           build every spec in a folder into out/<name>/
+
+exit status: 0 all checks pass, 1 a check fails or the design is infeasible,
+             2 invalid input or unwritable output.
+
+Safety: docgen estimates; it does not approve. Mains work must follow local codes
+and be checked by a qualified person.
+"""
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="docgen",
+        description="Size a small mains-powered linear DC supply from a requirements file and "
+        "write a traced design document (HTML, PDF and results.json).",
+        epilog=EPILOG,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    p.add_argument("--version", action="version", version=f"docgen {__version__}")
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    b = sub.add_parser("build", help="build the design document for one or more specs",
+                       description="Build OUT/<spec name>/ with report.html, report.pdf, "
+                       "results.json and the plots. A folder builds every .toml spec in it.")
+    b.add_argument("specs", nargs="+", metavar="SPEC_OR_DIR", type=Path)
+    b.add_argument("-o", "--out", type=Path, default=Path("out"),
+                   help="output folder (default: ./out)")
+    b.add_argument("--no-pdf", action="store_true", help="write HTML and results.json only")
+    b.add_argument("--strict", action="store_true", help="treat warnings as failures")
+
+    c = sub.add_parser("check", help="validate, size and check; print the result",
+                       description="Validate and compute without writing files; print each "
+                       "failing or marginal check with its corner and margin.")
+    c.add_argument("specs", nargs="+", metavar="SPEC", type=Path)
+    c.add_argument("--strict", action="store_true", help="treat warnings as failures")
+    c.add_argument("-v", "--verbose", action="store_true", help="print passing checks too")
+
+    n = sub.add_parser("new", help="print a commented starter requirements file",
+                       description="Print a commented starter requirements file, or write it "
+                       "to PATH (never overwriting an existing file).")
+    n.add_argument("path", nargs="?", type=Path)
+    return p
+
+
+def _spec_files(items: list[Path]) -> list[Path]:
+    from .errors import SpecError, SpecIssue
+
+    out: list[Path] = []
+    for item in items:
+        if item.is_dir():
+            found = sorted(p for p in item.glob("*.toml") if p.is_file())
+            if not found:
+                raise SpecError(str(item), [SpecIssue("", "folder holds no .toml spec files")])
+            out.extend(found)
+        else:
+            out.append(item)
+    return out
+
+
+def _exit_for(status: str, strict: bool) -> int:
+    if status in ("fail", "infeasible"):
+        return 1
+    if status == "warn" and strict:
+        return 1
+    return 0
+
+
+def _cmd_check(args) -> int:
+    from .errors import InfeasibleDesign
+    from .pipeline import run
+    from .spec import load_requirements
+    from .units import format_quantity as fq
+
+    worst = 0
+    for path in _spec_files(args.specs):
+        loaded = load_requirements(path)
+        try:
+            design = run(loaded)
+        except InfeasibleDesign as exc:
+            print(f"{path}: INFEASIBLE: {exc}")
+            worst = max(worst, 1)
+            continue
+        counts = design.counts()
+        print(f"{path}: {design.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
+              f"{counts['fail']} fail)")
+        for ch in design.checks:
+            if ch.status != "pass" or args.verbose:
+                rel = "<=" if ch.sense == "max" else ">="
+                print(f"  {ch.status.upper():4s} {ch.id}: {fq(ch.value, ch.unit)} {rel} "
+                      f"{fq(ch.limit, ch.unit)} (margin {ch.margin * 100:.1f} %) at {ch.corner}")
+        worst = max(worst, _exit_for(design.status, args.strict))
+    return worst
+
+
+def _cmd_build(args) -> int:
+    from .build import build_one
+
+    worst = 0
+    for path in _spec_files(args.specs):
+        result = build_one(path, args.out, pdf=not args.no_pdf)
+        if result.status == "infeasible":
+            print(f"{path}: INFEASIBLE: {result.reason}")
+        else:
+            counts = result.design.counts()
+            print(f"{path}: {result.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
+                  f"{counts['fail']} fail) -> {result.out_dir}/")
+        worst = max(worst, _exit_for(result.status, args.strict))
+    return worst
+
+
+def _cmd_new(args) -> int:
+    from .starter import STARTER
+
+    if args.path is None:
+        sys.stdout.write(STARTER)
+        return 0
+    from .errors import RenderError
+
+    try:
+        with open(args.path, "x", encoding="utf-8") as fh:
+            fh.write(STARTER)
+    except FileExistsError:
+        raise RenderError(f"{args.path}: already exists; docgen new never overwrites a file")
+    except OSError as exc:
+        raise RenderError(f"{args.path}: cannot write ({exc.strerror})") from None
+    print(f"wrote {args.path}")
+    return 0
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = _parser()
+    args = parser.parse_args(argv)
+    if args.command is None:
+        parser.print_help()
+        return 2
+    handlers = {"build": _cmd_build, "check": _cmd_check, "new": _cmd_new}
+    try:
+        return handlers[args.command](args)
+    except DocgenError as exc:
+        print(f"docgen: error: {exc}", file=sys.stderr)
+        return exc.exit_code
+    except KeyboardInterrupt:
+        print("docgen: interrupted", file=sys.stderr)
+        return 130
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

@@ -1,0 +1,1 @@
+"""Backends that turn a Design into files: results.json, HTML, PDF, plots."""

@@ -1,0 +1,135 @@
+"""Design -> one self-contained HTML file (Jinja templates, formulas and plots as data URIs)."""
+
+from __future__ import annotations
+
+import base64
+from importlib import resources
+from functools import lru_cache
+from typing import Any
+
+from ..design import Design
+from ..trace import TracedValue
+from . import filters
+from .mathsvg import formula_data_uri
+
+
+@lru_cache(maxsize=1)
+def environment():
+    import jinja2
+
+    env = jinja2.Environment(
+        loader=jinja2.FileSystemLoader(str(resources.files("docgen.templates"))),
+        autoescape=True,  # every text from a file is escaped
+        undefined=jinja2.StrictUndefined,
+        trim_blocks=True,
+        lstrip_blocks=True,
+    )
+    env.filters.update(math=_math_tag, qty=filters.qty, pct=filters.pct, status_word=filters.status_word,
+                       anchor=filters.anchor, unit_text=filters.unit_text)
+    return env
+
+
+def _math_tag(latex: str):
+    """An <img> of the typeset formula, with the LaTeX as alt text so the PDF stays searchable."""
+    from markupsafe import Markup, escape
+
+    uri, w, h = formula_data_uri(latex)
+    return Markup(
+        f'<img class="math" src="{uri}" style="width: {w:.1f}pt; height: {h:.1f}pt" '
+        f'alt="{escape(latex)}">'
+    )
+
+
+def _img(latex: str) -> dict[str, Any]:
+    uri, w, h = formula_data_uri(latex)
+    return {"src": uri, "width": f"{w:.1f}pt", "height": f"{h:.1f}pt", "alt": latex}
+
+
+def _svg_uri(svg: str) -> str:
+    return "data:image/svg+xml;base64," + base64.b64encode(svg.encode("utf-8")).decode("ascii")
+
+
+def _requirement_ancestors(design: Design, value_id: str, seen: set[str]) -> tuple[set, set]:
+    """Given-value ids and equation ids that a value depends on."""
+    givens: set[str] = set()
+    eqs: set[str] = set()
+    stack = [value_id]
+    while stack:
+        vid = stack.pop()
+        if vid in seen:
+            continue
+        seen.add(vid)
+        v = design.values[vid]
+        if v.equation in ("given", "default"):
+            givens.add(vid)
+        else:
+            eqs.add(v.equation)
+            stack.extend(v.inputs)
+    return givens, eqs
+
+
+def traceability(design: Design) -> list[dict[str, Any]]:
+    rows: dict[str, dict[str, Any]] = {}
+    for check in design.checks:
+        for vid in (check.value_id, check.limit_id):
+            givens, eqs = _requirement_ancestors(design, vid, set())
+            for g in givens:
+                row = rows.setdefault(g, {"value": design.values[g], "equations": set(),
+                                          "checks": set()})
+                row["equations"] |= eqs
+                row["checks"].add(check.id)
+    ordered = [rows[k] for k in design.values if k in rows]
+    for row in ordered:
+        row["equations"] = sorted(row["equations"])
+        row["checks"] = sorted(row["checks"])
+    return ordered
+
+
+def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
+    spec = design.requirements
+    values: list[TracedValue] = list(design.values.values())
+    by_stage: dict[str, list[dict[str, Any]]] = {}
+    for v in values:
+        item = {
+            "v": v,
+            "anchor": filters.anchor(v.id),
+            "computed": bool(v.latex),
+            "inputs": [{"id": i, "anchor": filters.anchor(i), "title": design.values[i].title}
+                       for i in v.inputs],
+            "equation": design.equations.get(v.equation),
+        }
+        by_stage.setdefault(v.stage, []).append(item)
+    stages = [
+        {"stage": s, "entries": by_stage.get(s.id, [])} for s in design.stages
+    ]
+    inputs = [v for v in values if v.equation in ("given", "default")]
+    checks_sorted = sorted(design.checks,
+                           key=lambda c: ({"fail": 0, "warn": 1, "pass": 2}[c.status], c.margin))
+    sources = sorted({e.source for e in design.equations.values()})
+    key_ids = ["transformer.v_rated", "transformer.va", "reservoir.c", "reservoir.v_rating",
+               "zener.r", "zener.p_rating", "output.ripple", "zener.p", "regulator.i_in_max"]
+    return {
+        "d": design,
+        "spec": spec,
+        "project": spec.project,
+        "counts": design.counts(),
+        "stages": stages,
+        "inputs": inputs,
+        "checks": design.checks,
+        "checks_sorted": checks_sorted,
+        "attention": [c for c in checks_sorted if c.status != "pass"],
+        "key_values": [design.values[k] for k in key_ids if k in design.values],
+        "parts": design.parts,
+        "cautions": design.cautions,
+        "assumptions": design.assumptions,
+        "sources": sources,
+        "equations": sorted(design.equations.values(), key=lambda e: e.id),
+        "trace_rows": traceability(design),
+        "plots": {name: _svg_uri(svg) for name, svg in plots.items()},
+        "values": design.values,
+    }
+
+
+def render_html(design: Design, plots: dict[str, str]) -> str:
+    css = environment().loader.get_source(environment(), "report.css")[0]
+    return environment().get_template("report.html.j2").render(css=css, **context(design, plots))

@@ -1,0 +1,1 @@
+"""Jinja templates and the report stylesheet (installed as the docgen.templates package)."""
