@@ -1,0 +1,20 @@
+"""Shared fixtures: paths to the demo and test specs, and one built demo document per session."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+
+ROOT = Path(__file__).resolve().parent.parent
+DEMO = ROOT / "specs" / "hydroponic-sensor-hub.toml"
+DATA = ROOT / "tests" / "data"
+
+
+@pytest.fixture(scope="session")
+def demo_build(tmp_path_factory):
+    """Build the demo spec once (HTML, PDF, results.json) for the end-to-end tests."""
+    from docgen.build import build_one
+
+    out = tmp_path_factory.mktemp("out")
+    return build_one(DEMO, out, pdf=True)
