@@ -61,17 +61,22 @@ import difflib
 import hashlib
 import math
 import re
-import tomllib
+import sys
 from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Annotated, Any, ClassVar, Union
+from typing import Annotated, Any, ClassVar
 
 from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError, model_validator
 
 from ..errors import SpecError, SpecIssue
 from ..units import expected_text, format_quantity, parse_quantity
 from . import eseries
+
+if sys.version_info >= (3, 11):
+    import tomllib
+else:  # pragma: no cover
+    import tomli as tomllib
 
 __all__ = [
     "SCHEMA",
@@ -240,7 +245,7 @@ class _Text(_Reader):
     def __call__(self, raw: Any) -> str:
         if not isinstance(raw, str):
             raise ValueError(f"expected {self.expects}, got {_show_raw(raw)}")
-        if self.part_id and (not raw.strip() or raw != raw.strip() or any(c.isspace() for c in raw)):
+        if self.part_id and (not raw or any(c.isspace() for c in raw)):
             raise ValueError(f"expected a part id without spaces, got {raw!r}")
         return raw
 
@@ -590,8 +595,8 @@ class Heatsink(_PartBase):
     size: Text = ""
 
 
-Part = Union[Transformer, Diode, Bridge, Capacitor, Zener, Resistor, ResistorFamily, Transistor,
-             Regulator, Fuse, Heatsink]
+Part = (Transformer | Diode | Bridge | Capacitor | Zener | Resistor | ResistorFamily | Transistor
+        | Regulator | Fuse | Heatsink)
 
 _MODELS: dict[str, type[_PartBase]] = {
     "transformer": Transformer,
@@ -766,7 +771,8 @@ def parse_library(data: bytes | str, path: str | Path = "<parts library>") -> Pa
     try:
         doc = tomllib.loads(raw_bytes.decode("utf-8"))
     except UnicodeDecodeError as exc:
-        raise SpecError(where, [SpecIssue("", f"the file is not UTF-8 text ({exc.reason})")]) from None
+        issue = SpecIssue("", f"the file is not UTF-8 text ({exc.reason} at byte {exc.start})")
+        raise SpecError(where, [issue]) from None
     except tomllib.TOMLDecodeError as exc:
         raise SpecError(where, [SpecIssue("", f"not valid TOML: {exc}")]) from None
 

@@ -69,7 +69,7 @@ class TestTables:
     def test_tables_are_strictly_ascending_within_one_decade(self):
         for name in eseries.SERIES:
             values = series_values(name)
-            assert all(a < b for a, b in zip(values, values[1:]))
+            assert all(a < b for a, b in zip(values, values[1:], strict=False))
             assert values[0] == 1.0 and values[-1] < 10.0
 
     def test_series_name_is_case_insensitive_and_unknown_names_are_refused(self):
@@ -150,7 +150,7 @@ class TestPreferred:
         # No member of the series lies strictly between down and up other than the value.
         if up != down:
             step = series_values(series)
-            ratio_limit = max(b / a for a, b in zip(step, step[1:] + (10.0,)))
+            ratio_limit = max(b / a for a, b in zip(step, step[1:] + (10.0,), strict=True))
             assert up / down <= ratio_limit * (1 + 1e-9)
 
 

@@ -278,7 +278,8 @@ va = "10 VA"
         assert locations(err) == ["resistor[0]"] and "below min" in str(err)
         err = problems(HEADER + family.replace('"E24"', '"E25"'))
         assert locations(err) == ["resistor[0].series"]
-        err = problems(HEADER + family.replace('min = "10 ohm"', 'resistance = "10 ohm"\nmin = "1 ohm"'))
+        both = family.replace('min = "10 ohm"', 'resistance = "10 ohm"\nmin = "1 ohm"')
+        err = problems(HEADER + both)
         assert "either one part" in str(err)
 
     def test_header_problems(self):
