@@ -27,19 +27,19 @@ def _eq(id: str, title: str, rhs: str, params: dict[str, str], source: str, note
 
 
 # ---------------------------------------------------------------- mains
-LINE_LOW = _eq("mains.line_low", "Low-line voltage", r"$v\,(1 - $t)",
+LINE_LOW = _eq("mains.line_low", "Low-line voltage", r"$v \cdot (1 - $t)",
                {"v": r"V_{nom}", "t": r"t_{lo}"}, IEC_60038)
-LINE_HIGH = _eq("mains.line_high", "High-line voltage", r"$v\,(1 + $t)",
+LINE_HIGH = _eq("mains.line_high", "High-line voltage", r"$v \cdot (1 + $t)",
                 {"v": r"V_{nom}", "t": r"t_{hi}"}, IEC_60038)
-SINE_PEAK = _eq("sine.peak", "Peak of a sinusoid", r"\sqrt{2}\,$v", {"v": r"V_{rms}"},
+SINE_PEAK = _eq("sine.peak", "Peak of a sinusoid", r"\sqrt{2} \cdot $v", {"v": r"V_{rms}"},
                 "sinusoid relation, any circuits text (e.g. " + SEDRA_SMITH + ")")
-RIPPLE_FREQ_FW = _eq("rectifier.ripple_frequency_fw", "Ripple frequency, full-wave", r"2\,$f",
+RIPPLE_FREQ_FW = _eq("rectifier.ripple_frequency_fw", "Ripple frequency, full-wave", r"2 \cdot $f",
                      {"f": "f"}, "full-wave rectification, any circuits text (" + SEDRA_SMITH + ")")
 
 # ---------------------------------------------------------------- zener requirements
-BOUND_HIGH = _eq("tolerance.upper", "Upper bound with tolerance", r"$x\,(1 + $t)",
+BOUND_HIGH = _eq("tolerance.upper", "Upper bound with tolerance", r"$x \cdot (1 + $t)",
                  {"x": "x", "t": "t"}, DEF)
-BOUND_LOW = _eq("tolerance.lower", "Lower bound with tolerance", r"$x\,(1 - $t)",
+BOUND_LOW = _eq("tolerance.lower", "Lower bound with tolerance", r"$x \cdot (1 - $t)",
                 {"x": "x", "t": "t"}, DEF)
 ZENER_DT = _eq(
     "zener.delta_t", "Largest junction temperature excursion from 25 degC",
@@ -49,18 +49,18 @@ ZENER_DT = _eq(
 )
 ZENER_HIGH = _eq(
     "zener.voltage_high", "Zener voltage, upper extreme",
-    r"$v\,(1 + $t) + |$a|\,$v\,$d",
+    r"$v \cdot (1 + $t) + |$a| \cdot $v \cdot $d",
     {"v": r"V_Z", "t": r"t_Z", "a": r"\alpha_Z", "d": r"\Delta T"},
     "temperature coefficient definition (common practice); conservative: the temperature "
     "term widens both extremes",
 )
 ZENER_LOW = _eq(
     "zener.voltage_low", "Zener voltage, lower extreme",
-    r"$v\,(1 - $t) - |$a|\,$v\,$d",
+    r"$v \cdot (1 - $t) - |$a| \cdot $v \cdot $d",
     {"v": r"V_Z", "t": r"t_Z", "a": r"\alpha_Z", "d": r"\Delta T"},
     "temperature coefficient definition (common practice)",
 )
-ZENER_IZMIN = _eq("zener.iz_min", "Minimum zener current", r"$k\,$i",
+ZENER_IZMIN = _eq("zener.iz_min", "Minimum zener current", r"$k \cdot $i",
                   {"k": r"k_{ZK}", "i": r"I_{ZK}"},
                   SEDRA_SMITH + "; the exercise keeps I_Z above 5 x I_ZK")
 SUM2 = _eq("sum.two", "Sum", r"$a + $b", {"a": "a", "b": "b"}, DEF)
@@ -73,10 +73,10 @@ PEAK_FROM_VALLEY = _eq(
     "valley = peak - ripple (" + SEDRA_SMITH + ")",
 )
 RIPPLE_FRACTION = _eq("reservoir.ripple_allowed_frac", "Ripple allowed by the ripple fraction",
-                      r"$r\,$p", {"r": r"r_{ripple}", "p": r"V_{C,pk}"}, COMMON)
+                      r"$r \cdot $p", {"r": r"r_{ripple}", "p": r"V_{C,pk}"}, COMMON)
 RIPPLE_THROUGH_DIVIDER = _eq(
     "zener.ripple_in_allowed", "Input ripple allowed by the output ripple limit",
-    r"$o\,\frac{$R + $z}{$z}",
+    r"$o \cdot \frac{$R + $z}{$z}",
     {"o": r"V_{r,out}", "R": "R", "z": r"r_z"},
     SEDRA_SMITH + ": line regulation r_z / (R + r_z)",
 )
@@ -84,7 +84,7 @@ MIN2 = _eq("min.two", "Smaller of two limits", r"\min($a,\ $b)", {"a": "a", "b":
 MAX2 = _eq("max.two", "Larger of two values", r"\max($a,\ $b)", {"a": "a", "b": "b"}, DEF)
 SEC_PEAK_NEEDED = _eq(
     "transformer.secondary_peak_needed", "Secondary peak needed at low line, full load",
-    r"$v + $r + 2\,$d",
+    r"$v + $r + 2 \cdot $d",
     {"v": r"V_{valley}", "r": r"V_r", "d": r"V_F"},
     "bridge: two diode drops in the conducting path (about 1.4-2 V, common practice)",
 )
@@ -99,11 +99,11 @@ PICKED = _eq("pick.standard", "Next standard value at or above the need", r"\lce
              {"x": "x"}, COMMON, note="chosen from the standard list named in the value title")
 SEC_RMS_CURRENT = _eq(
     "transformer.secondary_rms_table", "Secondary RMS current of a capacitor-input bridge",
-    r"$k\,$i", {"k": r"k_{rms}", "i": r"I_{DC}"},
+    r"$k \cdot $i", {"k": r"k_{rms}", "i": r"I_{DC}"},
     "common practice: makers' selection tables give 1.6-1.8 x I_DC for a bridge; "
     "O. H. Schade, Proc. IRE 1943, shows the ratio depends on wCR_L and R_s/R_L",
 )
-VA_NEEDED = _eq("transformer.va", "Apparent power of the secondary", r"$v\,$i",
+VA_NEEDED = _eq("transformer.va", "Apparent power of the secondary", r"$v \cdot $i",
                 {"v": r"V_{sec}", "i": r"I_{sec,rms}"}, DEF)
 REGULATION_TYPICAL = _eq(
     "transformer.regulation_typical", "Typical regulation for the VA rating",
@@ -111,13 +111,13 @@ REGULATION_TYPICAL = _eq(
     "common practice: typical regulation of small mains transformers by VA band",
     note="interpolated on a log scale between band figures; a datasheet figure overrides it",
 )
-NO_LOAD = _eq("transformer.no_load", "No-load secondary voltage", r"$v\,(1 + $g)",
+NO_LOAD = _eq("transformer.no_load", "No-load secondary voltage", r"$v \cdot (1 + $g)",
               {"v": r"V_{sec}", "g": r"\mathrm{Reg}"},
               "common practice: Reg = (V_NL - V_FL) / V_FL")
-SCALE = _eq("scale.ratio", "Scaled by a ratio", r"$v\,$k", {"v": "v", "k": "k"}, DEF)
+SCALE = _eq("scale.ratio", "Scaled by a ratio", r"$v \cdot $k", {"v": "v", "k": "k"}, DEF)
 CAP_PEAK_LOW = _eq(
     "rectifier.cap_peak", "Capacitor peak voltage",
-    r"\sqrt{2}\,$v - 2\,$d", {"v": r"V_{sec}", "d": r"V_F"},
+    r"\sqrt{2} \cdot $v - 2 \cdot $d", {"v": r"V_{sec}", "d": r"V_F"},
     SEDRA_SMITH + "; bridge loses two diode drops",
 )
 RATED_CURRENT = _eq("transformer.rated_current", "Rated secondary current", r"\frac{$s}{$v}",
@@ -126,14 +126,14 @@ RATED_CURRENT = _eq("transformer.rated_current", "Rated secondary current", r"\f
 # ---------------------------------------------------------------- reservoir
 CAP_FOR_RIPPLE = _eq(
     "reservoir.capacitance", "Capacitance for the allowed ripple",
-    r"\frac{$i}{$f\,$v}", {"i": r"I_{DC}", "f": r"f_r", "v": r"V_r"},
+    r"\frac{$i}{$f \cdot $v}", {"i": r"I_{DC}", "f": r"f_r", "v": r"V_r"},
     SEDRA_SMITH + ": V_r = I / (f_r C); conservative by about 15-25 % at 10 % ripple",
 )
 CAP_NOMINAL_NEEDED = _eq("reservoir.nominal_needed", "Nominal capacitance covering the tolerance",
                          r"\frac{$c}{1 - $t}", {"c": r"C_{req}", "t": r"t_C"}, DEF)
 RIPPLE = _eq(
     "reservoir.ripple", "Peak-to-peak ripple (constant-current discharge)",
-    r"\frac{$i}{$f\,$c}", {"i": r"I_{DC}", "f": r"f_r", "c": "C"},
+    r"\frac{$i}{$f \cdot $c}", {"i": r"I_{DC}", "f": r"f_r", "c": "C"},
     SEDRA_SMITH + ": small-ripple approximation",
 )
 DERATED_NEED = _eq("derating.rating_needed", "Rating needed after derating", r"\frac{$x}{$k}",
@@ -157,24 +157,24 @@ ZENER_CURRENT_AT = _eq(
 )
 INPUT_CURRENT = _eq("zener.input_current", "Regulator input current", r"\frac{$v - $z}{$R}",
                     {"v": r"V_{in}", "z": r"V_Z", "R": "R"}, "Ohm's law")
-POWER_VI = _eq("power.vi", "Power", r"$v\,$i", {"v": "V", "i": "I"}, DEF)
+POWER_VI = _eq("power.vi", "Power", r"$v \cdot $i", {"v": "V", "i": "I"}, DEF)
 POWER_V2R = _eq("power.v2r", "Power in a resistor", r"\frac{($a - $b)^2}{$R}",
                 {"a": r"V_a", "b": r"V_b", "R": "R"}, "Joule's law")
 DIVIDER = _eq("zener.ripple_out", "Output ripple through the R / r_z divider",
-              r"$v\,\frac{$z}{$R + $z}", {"v": r"V_r", "z": r"r_z", "R": "R"},
+              r"$v \cdot \frac{$z}{$R + $z}", {"v": r"V_r", "z": r"r_z", "R": "R"},
               SEDRA_SMITH + ": line regulation r_z / (R + r_z)")
 RELATIVE_DEV = _eq("deviation.relative", "Relative deviation from nominal", r"\frac{$a - $n}{$n}",
                    {"a": "V", "n": r"V_{nom}"}, DEF)
 
 # ---------------------------------------------------------------- rectifier
-PIV_BRIDGE = _eq("bridge.piv", "Peak inverse voltage per bridge diode", r"\sqrt{2}\,$v",
+PIV_BRIDGE = _eq("bridge.piv", "Peak inverse voltage per bridge diode", r"\sqrt{2} \cdot $v",
                  {"v": r"V_{sec,NL,hi}"},
                  SEDRA_SMITH + ": each blocking bridge diode sees the winding peak")
 HALF = _eq("bridge.avg_current", "Average current per bridge diode", r"\frac{$i}{2}",
            {"i": r"I_{DC}"}, "full-wave: each diode pair conducts every other half-cycle")
 PEAK_CURRENT_FW = _eq(
     "bridge.peak_current", "Repetitive peak diode current (ideal source)",
-    r"$i\,\left(1 + 2\pi\sqrt{\frac{$v}{2\,$r}}\right)",
+    r"$i \cdot \left(1 + 2\pi\sqrt{\frac{$v}{2 \cdot $r}}\right)",
     {"i": r"I_{DC}", "v": r"V_{C,pk}", "r": r"V_r"},
     SEDRA_SMITH + ": full-wave peak rectifier; an upper bound (no source resistance)",
 )
@@ -187,22 +187,27 @@ CONDUCTION_ANGLE = _eq(
 # ---------------------------------------------------------------- zener regulator, self-consistent
 RIPPLE_WITH_R = _eq(
     "zener.ripple_with_resistor", "Ripple with the regulator's own input current",
-    r"\frac{$v - $z}{$f\,$c\,$R + 1/2}",
+    r"\frac{$v - $z}{$f \cdot $c \cdot $R + 1/2}",
     {"v": r"V_{C,pk}", "z": r"V_Z", "f": r"f_r", "c": r"C_{min}", "R": "R"},
     "derived from " + SEDRA_SMITH + ": V_r = I/(f_r C) with I = (V_pk - V_r/2 - V_Z)/R",
 )
+ZENER_B = _eq(
+    "zener.quadratic_b", "Auxiliary term of the series-resistor quadratic",
+    r"$a \cdot $f \cdot $c - \frac{$i}{2}",
+    {"a": "a", "f": r"f_r", "c": r"C_{min}", "i": r"I_T"},
+    "derived (see zener.series_resistor_exact)",
+)
 ZENER_R_EXACT = _eq(
     "zener.series_resistor_exact", "Largest series resistor holding I_Z,min at the trough",
-    r"\frac{b + \sqrt{b^2 - 2\,$i\,$f\,$c\,a}}{2\,$i\,$f\,$c},\ "
-    r"a = $v - $z,\ b = a\,$f\,$c - $i/2",
-    {"v": r"V_{C,pk,lo}", "z": r"V_{Z,max}", "i": r"I_T", "f": r"f_r", "c": r"C_{min}"},
-    "derived: (V_pk - V_r - V_Z)/R = I_T with V_r from the ripple equation above "
-    "(zener shunt design of " + SEDRA_SMITH + ")",
-    note="I_T = I_L,max + I_Z,min; the larger root is the one with small ripple",
+    r"\frac{$b + \sqrt{$b^2 - 2 \cdot $i \cdot $f \cdot $c \cdot $a}}{2 \cdot $i \cdot $f \cdot $c}",
+    {"a": r"a", "b": "b", "i": r"I_T", "f": r"f_r", "c": r"C_{min}"},
+    "derived: (V_pk - V_r - V_Z)/R = I_T with V_r from the ripple equation "
+    "zener.ripple_with_resistor (zener shunt design of " + SEDRA_SMITH + ")",
+    note="a = V_C,pk,lo - V_Z,max; I_T = I_L,max + I_Z,min; the larger root has the small ripple",
 )
 VALLEY = _eq("reservoir.valley", "Capacitor voltage at the ripple trough", r"$p - $r",
              {"p": r"V_{C,pk}", "r": r"V_r"}, SEDRA_SMITH + ": valley = peak - ripple")
 MEAN_FROM_PEAK = _eq("reservoir.mean", "Mean capacitor voltage", r"$p - \frac{$r}{2}",
                      {"p": r"V_{C,pk}", "r": r"V_r"}, SEDRA_SMITH)
-ENERGY = _eq("reservoir.energy", "Energy stored in the reservoir", r"\frac{1}{2}\,$c\,$v^2",
+ENERGY = _eq("reservoir.energy", "Energy stored in the reservoir", r"\frac{1}{2} \cdot $c \cdot $v^2",
              {"c": "C", "v": r"V_{C,max}"}, "capacitor energy, any physics text")

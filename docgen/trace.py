@@ -11,6 +11,7 @@ drift apart unnoticed.
 from __future__ import annotations
 
 import math
+import re
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field
 from string import Template
@@ -163,7 +164,9 @@ class Ledger:
         result = float(fn(**args))
         rhs = Template(equation.rhs)
         symbolic = rhs.substitute({p: self.values[vid].symbol for p, vid in inputs.items()})
-        substituted = rhs.substitute(
+        # A value with a unit raised to a power needs brackets: (930 mA)^2, not 930 mA^2.
+        powered = Template(re.sub(r"\$(\w+)\^", r"\\left($\1\\right)^", equation.rhs))
+        substituted = powered.substitute(
             {p: latex_number(self.values[vid].value, self.values[vid].unit)
              for p, vid in inputs.items()}
         )

@@ -54,7 +54,8 @@ def formula_svg(latex: str) -> tuple[str, float, float]:
     from matplotlib.textpath import TextPath
 
     prop = FontProperties(family="DejaVu Sans", size=FONT_SIZE)
-    tp = TextPath((0, 0), f"${latex}$", prop=prop)
+    # Display-style fractions: mathtext's inline \frac shrinks numbers below reading size.
+    tp = TextPath((0, 0), "$" + latex.replace(r"\frac", r"\dfrac") + "$", prop=prop)
     ext = tp.get_extents()
     pad = 1.0
     y_min = min(ext.y0, 0.0) - pad

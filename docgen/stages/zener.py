@@ -20,9 +20,7 @@ INTRO = ("The series resistor is the largest value that still keeps the minimum 
          "its rated load for these currents; the no-load voltage is kept for voltage ratings.")
 
 
-def _r_max(v: float, z: float, i: float, f: float, c: float) -> float:
-    a = v - z
-    b = a * f * c - i / 2
+def _r_max(a: float, b: float, i: float, f: float, c: float) -> float:
     disc = b * b - 2 * i * f * c * a
     if a <= 0 or disc < 0 or b <= 0:
         return float("nan")
@@ -37,7 +35,12 @@ def size_zener(spec: Requirements, L: Ledger) -> None:
     if out.series_resistor is not None:
         L.given("zener.r", "R", out.series_resistor, "ohm", "Series resistor (fixed part)")
     else:
-        r_max = _r_max(L["reservoir.v_pk_low"], L["zener.v_max"], L["regulator.i_trough"],
+        L.calc("zener.a", eq.DIFF2, "a", "V", "Peak above the highest zener voltage (low line)",
+               {"a": "reservoir.v_pk_low", "b": "zener.v_max"}, lambda a, b: a - b)
+        L.calc("zener.b", eq.ZENER_B, "b", "A", "Auxiliary term b of the resistor quadratic",
+               {"a": "zener.a", "f": "mains.ripple_freq", "c": "reservoir.c_min",
+                "i": "regulator.i_trough"}, lambda a, f, c, i: a * f * c - i / 2)
+        r_max = _r_max(L["zener.a"], L["zener.b"], L["regulator.i_trough"],
                        L["mains.ripple_freq"], L["reservoir.c_min"])
         if not math.isfinite(r_max) or r_max <= 0:
             raise InfeasibleDesign(
@@ -49,7 +52,7 @@ def size_zener(spec: Requirements, L: Ledger) -> None:
             )
         L.calc("zener.r_max", eq.ZENER_R_EXACT, r"R_{max}", "ohm",
                "Largest series resistor keeping I_Z,min at the trough",
-               {"v": "reservoir.v_pk_low", "z": "zener.v_max", "i": "regulator.i_trough",
+               {"a": "zener.a", "b": "zener.b", "i": "regulator.i_trough",
                 "f": "mains.ripple_freq", "c": "reservoir.c_min"}, _r_max)
         L.calc("zener.r", eq.PREFERRED_DOWN, "R", "ohm", "Series resistor (E24, rounded down)",
                {"x": "zener.r_max"}, lambda x: preferred(x, "E24", "down"))
