@@ -127,6 +127,8 @@ class _Quantity(_Reader):
         self.expects = expected_text(dimension)
 
     def _show(self, value: float) -> str:
+        if self.unit == "1/K":
+            return f"{value * 100:g} %/K"
         return format_quantity(value, self.unit) if self.unit is not None else f"{value:g}"
 
     def __call__(self, raw: Any) -> float:

@@ -311,3 +311,26 @@ regulation = "20 %"
         err = problems(text)
         assert locations(err) == ["transformer[0].center_tapped"]
         assert "true or false" in str(err)
+
+    def test_out_of_range_values_are_shown_in_the_field_unit(self):
+        text = HEADER + """
+[[zener]]
+id = "Z1"
+voltage = "5.1 V"
+tolerance = "5 %"
+power = "0.5 W"
+power_reference = "leads"
+power_reference_temperature = "25 degC"
+t_j_max = "900 degC"
+r_theta = "300 K/W"
+knee_current = "1 mA"
+test_current = "5 mA"
+dynamic_resistance = "40 ohm"
+tempco = "5 %/K"
+"""
+        err = problems(text)
+        assert locations(err) == ["zener[0].power_reference", "zener[0].t_j_max",
+                                  "zener[0].tempco"]
+        text = str(err)
+        assert "did you mean 'lead'?" in text
+        assert "at most 250 °C" in text and "at most 1 %/K" in text
