@@ -11,7 +11,7 @@ from .errors import InfeasibleDesign
 from .spec import LoadedSpec
 from .spec.models import Requirements
 from .stages import mains, rectifier, regulator_needs, reservoir, transformer, zener
-from .trace import Assumption, Ledger
+from .trace import Assumption, Ledger, TraceError
 from .units import format_quantity as fq
 from .waveform_ideal import ideal_bridge_zener
 
@@ -150,7 +150,13 @@ def run(loaded: LoadedSpec) -> Design:
     spec = loaded.requirements
     va_floor = 0.0
     for _ in range(4):
-        L = _size(spec, va_floor)
+        try:
+            L = _size(spec, va_floor)
+        except (TraceError, ArithmeticError, ValueError) as exc:
+            # Requirements that pass validation can still be physically contradictory in a way
+            # that surfaces as a non-finite or undefined value; never report such numbers.
+            raise InfeasibleDesign(
+                f"the requirements lead to an undefined value while sizing ({exc})") from None
         # The secondary current is known only once the regulator is sized; raise the VA
         # rating and size again if the first estimate was short (sized transformers only).
         need = L["transformer.i_rms"] * L["transformer.v_rated"]

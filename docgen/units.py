@@ -49,7 +49,7 @@ DIMENSIONS: dict[str, tuple[str, dict[str, float]]] = {
 
 # Units that must not take a prefix (a "min" is not a milli-"in"; "%" has no prefix).
 _NO_PREFIX = {"%", "min", "h", "year", "y", "degC", "\u00b0C", "C", "ppm", "%/degC", "%/K",
-              "%/\u00b0C", "ppm/K", "degC/W", "\u00b0C/W", "C/W", "K/W", "1/K", "V/degC"}
+              "%/\u00b0C", "ppm/K", "degC/W", "\u00b0C/W", "C/W", "K/W", "1/K"}
 
 _NUMBER = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
 
