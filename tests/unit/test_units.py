@@ -109,12 +109,9 @@ def test_voltage_tempco_with_prefix_in_kelvin():
     assert parse_quantity("5 mV/K", "voltage_tempco") == pytest.approx(5e-3, rel=1e-12)
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="bug: docgen/units.py _NO_PREFIX lists 'V/degC', so '5 mV/degC' -- the very example "
-    "expected_text('voltage_tempco') offers -- is rejected; 'mV/K' works",
-)
 def test_voltage_tempco_example_from_the_error_message_is_accepted():
+    # Regression: "5 mV/degC" is the example expected_text('voltage_tempco') offers; it was
+    # rejected while _NO_PREFIX listed "V/degC" (fixed in b27e2ed).
     # SI Brochure Table 7 (milli) and 1 degC difference = 1 K (section 2.3.1), from memory.
     assert parse_quantity("5 mV/degC", "voltage_tempco") == pytest.approx(5e-3, rel=1e-12)
 
