@@ -46,6 +46,10 @@ def _parser() -> argparse.ArgumentParser:
                    help="output folder (default: ./out)")
     b.add_argument("--no-pdf", action="store_true", help="write HTML and results.json only")
     b.add_argument("--strict", action="store_true", help="treat warnings as failures")
+    b.add_argument("--force", action="store_true",
+                   help="rebuild even when the outputs are up to date")
+    b.add_argument("-j", "--jobs", type=_positive_int, default=None, metavar="N",
+                   help="worker processes for several specs (default: number of CPUs)")
 
     c = sub.add_parser("check", help="validate, size and check; print the result",
                        description="Validate and compute without writing files; print each "
@@ -54,11 +58,49 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--strict", action="store_true", help="treat warnings as failures")
     c.add_argument("-v", "--verbose", action="store_true", help="print passing checks too")
 
+    d = sub.add_parser("diff", help="show what a requirements change does to the design",
+                       description="Compute two versions of a requirements file and list what "
+                       "changed: requirements, values, parts, checks, cautions and the overall "
+                       "status. Give two files, or one file and --rev to compare it with its "
+                       "content at a git revision.",
+                       epilog="exit status: 0 nothing changed, 1 something changed, "
+                       "2 invalid input.")
+    d.add_argument("specs", nargs="+", metavar="SPEC", type=Path,
+                   help="OLD NEW, or one SPEC with --rev")
+    d.add_argument("--rev", metavar="REV",
+                   help="compare SPEC with its content at this git revision (e.g. HEAD, main~3)")
+    d.add_argument("--threshold", type=_non_negative_float, default=1e-9, metavar="REL",
+                   help="smallest relative change of a value or margin to report (default 1e-9)")
+    d.add_argument("-o", "--out", type=Path, metavar="FILE",
+                   help="also write an HTML change report to FILE")
+
     n = sub.add_parser("new", help="print a commented starter requirements file",
                        description="Print a commented starter requirements file, or write it "
                        "to PATH (never overwriting an existing file).")
     n.add_argument("path", nargs="?", type=Path)
     return p
+
+
+def _positive_int(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        value = 0
+    if value < 1:
+        raise argparse.ArgumentTypeError(f"expected a whole number of at least 1, got {text!r}")
+    return value
+
+
+def _non_negative_float(text: str) -> float:
+    import math
+
+    try:
+        value = float(text)
+    except ValueError:
+        value = -1.0
+    if not (math.isfinite(value) and value >= 0):
+        raise argparse.ArgumentTypeError(f"expected a number of 0 or more, got {text!r}")
+    return value
 
 
 def _spec_files(items: list[Path]) -> list[Path]:
@@ -112,19 +154,74 @@ def _cmd_check(args) -> int:
 
 
 def _cmd_build(args) -> int:
-    from .build import build_one
+    specs = _spec_files(args.specs)
+    if len(specs) == 1 and not any(item.is_dir() for item in args.specs):
+        return _build_single(specs[0], args)
+    return _build_batch(specs, args)
 
+
+def _build_single(path: Path, args) -> int:
+    from .incremental import build_incremental
+
+    outcome = build_incremental(path, args.out, pdf=not args.no_pdf, force=args.force)
+    note = " (up to date; --force rebuilds)" if outcome.action == "up to date" else ""
+    if outcome.status == "infeasible":
+        print(f"{path}: INFEASIBLE: {outcome.reason}{note}")
+    else:
+        counts = outcome.counts
+        print(f"{path}: {outcome.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
+              f"{counts['fail']} fail) -> {outcome.out_dir}/{note}")
+    return _exit_for(outcome.status, args.strict)
+
+
+def _build_batch(specs: list[Path], args) -> int:
+    from .batch import Progress, run_batch, summary_table, unique_specs
+
+    specs = unique_specs(specs, args.out)
+    progress = Progress(len(specs))
+    try:
+        outcomes = run_batch(specs, args.out, pdf=not args.no_pdf, force=args.force,
+                             jobs=args.jobs, on_done=progress)
+    finally:
+        progress.close()
     worst = 0
-    for path in _spec_files(args.specs):
-        result = build_one(path, args.out, pdf=not args.no_pdf)
-        if result.status == "infeasible":
-            print(f"{path}: INFEASIBLE: {result.reason}")
-        else:
-            counts = result.design.counts()
-            print(f"{path}: {result.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
-                  f"{counts['fail']} fail) -> {result.out_dir}/")
-        worst = max(worst, _exit_for(result.status, args.strict))
+    for o in outcomes:
+        worst = max(worst, o.exit_code if o.action == "error" else _exit_for(o.status, args.strict))
+    sys.stdout.write(summary_table(outcomes, strict=args.strict, out_root=args.out, worst=worst))
     return worst
+
+
+def _cmd_diff(args) -> int:
+    from .diff import (
+        DiffUsageError,
+        check_html_target,
+        compare,
+        load_rev_side,
+        load_side,
+        terminal_text,
+        write_html,
+    )
+
+    if args.out is not None:
+        check_html_target(args.out, list(args.specs))
+    if args.rev is not None:
+        if len(args.specs) != 1:
+            raise DiffUsageError("diff --rev REV takes one SPEC; expected 'docgen diff SPEC "
+                                 "--rev REV'")
+        new = load_side(args.specs[0])
+        old = load_rev_side(args.specs[0], args.rev)
+    else:
+        if len(args.specs) != 2:
+            raise DiffUsageError("diff takes two specs; expected 'docgen diff OLD NEW' or "
+                                 "'docgen diff SPEC --rev REV'")
+        old = load_side(args.specs[0])
+        new = load_side(args.specs[1])
+    report = compare(old, new, args.threshold)
+    sys.stdout.write(terminal_text(report))
+    if args.out is not None:
+        write_html(report, args.out, list(args.specs))
+        print(f"wrote {args.out}")
+    return 1 if report.changed else 0
 
 
 def _cmd_new(args) -> int:
@@ -152,7 +249,7 @@ def main(argv: list[str] | None = None) -> int:
     if args.command is None:
         parser.print_help()
         return 2
-    handlers = {"build": _cmd_build, "check": _cmd_check, "new": _cmd_new}
+    handlers = {"build": _cmd_build, "check": _cmd_check, "diff": _cmd_diff, "new": _cmd_new}
     try:
         return handlers[args.command](args)
     except DocgenError as exc:
