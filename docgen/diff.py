@@ -13,6 +13,7 @@ count as a change of the design.
 from __future__ import annotations
 
 import math
+import os
 import subprocess
 import tempfile
 from dataclasses import dataclass, field
@@ -42,6 +43,7 @@ class Side:
     design: Any = None  # docgen.design.Design, None when infeasible
     status: str = ""  # pass | warn | fail | infeasible
     reason: str = ""  # why it is infeasible
+    notes: list[str] = field(default_factory=list)  # how the side was read, if unusual
 
 
 def _compute(label: str, loaded) -> Side:
@@ -60,61 +62,114 @@ def load_side(path: Path) -> Side:
     return _compute(str(path), load_requirements(path))
 
 
-def load_text_side(text: str, name: str, label: str) -> Side:
-    """Load requirements given as text (written to a temporary file, since the loader reads
-    files); errors name ``label`` instead of the temporary file."""
+def _climbs(rel: str) -> int:
+    """How many folders a normalised relative path climbs above its start ("../../x" -> 2)."""
+    parts = rel.split("/")
+    n = 0
+    while n < len(parts) and parts[n] == "..":
+        n += 1
+    return n
+
+
+def load_text_side(text: str, name: str, label: str,
+                   files: list[tuple[str, bytes]] | None = None,
+                   notes: list[str] | None = None) -> Side:
+    """Load requirements given as text (written to a temporary folder, since the loader reads
+    files), with the files it refers to (``files``: path relative to the spec's folder, bytes)
+    at the same relative places; errors name ``label`` instead of the temporary file."""
     from .spec import load_requirements
 
+    files = files or []
     with tempfile.TemporaryDirectory(prefix="docgen-diff-") as tmp:
-        target = Path(tmp) / (Path(name).name or "spec.toml")
+        root = Path(tmp)
+        depth = max((_climbs(rel) for rel, _ in files), default=0)
+        spec_dir = root.joinpath(*[f"level{i}" for i in range(depth)])
+        spec_dir.mkdir(parents=True, exist_ok=True)
+        for rel, data in files:
+            target = Path(os.path.normpath(spec_dir / rel))
+            target.parent.mkdir(parents=True, exist_ok=True)
+            target.write_bytes(data)
+        target = spec_dir / (Path(name).name or "spec.toml")
         target.write_text(text, encoding="utf-8")
         try:
             loaded = load_requirements(target)
         except SpecError as exc:
             raise SpecError(label, exc.issues) from None
-        return _compute(label, loaded)
+        side = _compute(label, loaded)
+    side.notes = list(notes or [])
+    return side
+
+
+def _git_blob(folder: Path, rev: str, rel: str) -> tuple[bytes | None, str]:
+    """(bytes of ``rel`` at ``rev``, "") or (None, why not); ``rel`` is relative to ``folder``."""
+    try:
+        proc = subprocess.run(["git", "show", f"{rev}:./{rel}"], cwd=folder,
+                              capture_output=True, timeout=120, check=False)
+    except FileNotFoundError:
+        return None, "git is not installed; expected the git command on PATH"
+    except OSError as exc:
+        return None, f"cannot run git ({exc.strerror})"
+    except subprocess.TimeoutExpired:
+        return None, "git did not answer within 120 s"
+    if proc.returncode != 0:
+        detail = proc.stderr.decode("utf-8", "replace").strip().splitlines()
+        first = detail[0] if detail else f"git exited with status {proc.returncode}"
+        return None, first.removeprefix("fatal: ")
+    return proc.stdout, ""
+
+
+def _check_rev(spec: Path, rev: str) -> None:
+    if not rev or rev.startswith("-") or any(c in rev for c in "\n\0"):
+        raise SpecError(str(spec), [SpecIssue(
+            f"--rev {rev}", "expected a git revision such as HEAD, HEAD~1, a tag or a commit id")])
 
 
 def git_show(spec: Path, rev: str) -> str:
     """The content of ``spec`` at git revision ``rev`` (``git show REV:./name`` in its folder)."""
-    where = f"--rev {rev}"
-    if not rev or rev.startswith("-") or any(c in rev for c in "\n\0"):
-        raise SpecError(str(spec), [SpecIssue(
-            where, "expected a git revision such as HEAD, HEAD~1, a tag or a commit id")])
+    _check_rev(spec, rev)
     folder = spec.parent if str(spec.parent) else Path(".")
-    try:
-        proc = subprocess.run(
-            ["git", "show", f"{rev}:./{spec.name}"], cwd=folder, capture_output=True,
-            timeout=120, check=False)
-    except FileNotFoundError:
+    data, why = _git_blob(folder, rev, spec.name)
+    if data is None:
         raise SpecError(str(spec), [SpecIssue(
-            where, "git is not installed; expected the git command on PATH")]) from None
-    except OSError as exc:
-        raise SpecError(str(spec), [SpecIssue(where, f"cannot run git ({exc.strerror})")]) from None
-    except subprocess.TimeoutExpired:
-        raise SpecError(str(spec), [SpecIssue(where, "git did not answer within 120 s")]) from None
-    if proc.returncode != 0:
-        detail = proc.stderr.decode("utf-8", "replace").strip().splitlines()
-        first = detail[0] if detail else f"git exited with status {proc.returncode}"
-        first = first.removeprefix("fatal: ")
-        raise SpecError(str(spec), [SpecIssue(
-            where, f"git cannot read the file at that revision ({first}); expected a revision "
-            "of the file's repository in which the file exists")])
+            f"--rev {rev}", f"git cannot read the file at that revision ({why}); expected a "
+            "revision of the file's repository in which the file exists")])
     try:
-        return proc.stdout.decode("utf-8")
+        return data.decode("utf-8")
     except UnicodeDecodeError as exc:
         raise SpecError(f"{spec} at {rev}", [SpecIssue(
             "", f"not UTF-8 text (byte {exc.start}); expected a TOML text file")]) from None
 
 
 def load_rev_side(spec: Path, rev: str) -> Side:
+    """The spec as it was at ``rev``, with the files it refers to (a parts library) as they were
+    at ``rev`` too; a referenced file that git does not hold is taken from the disk, with a note."""
+    from .incremental import extra_inputs
+
+    _check_rev(spec, rev)
     if not spec.is_file():
         # the working copy is loaded first so a missing file is reported in the usual way
         from .spec import load_requirements
 
         load_requirements(spec)
     text = git_show(spec, rev)
-    return load_text_side(text, spec.name, f"{spec} at {rev}")
+    folder = spec.parent if str(spec.parent) else Path(".")
+    files: list[tuple[str, bytes]] = []
+    notes: list[str] = []
+    for role, ref in extra_inputs(Path(spec.name), text.encode("utf-8")):
+        if ref.is_absolute():
+            notes.append(f"{role} {ref}: an absolute path, read as it is on disk now")
+            continue
+        rel = os.path.normpath(ref).replace(os.sep, "/")
+        data, why = _git_blob(folder, rev, rel)
+        if data is None:
+            try:
+                data = (folder / rel).read_bytes()
+            except OSError:
+                notes.append(f"{role} {rel}: neither in git at {rev} ({why}) nor on disk")
+                continue
+            notes.append(f"{role} {rel}: not in git at {rev} ({why}); the file on disk was used")
+        files.append((rel, data))
+    return load_text_side(text, spec.name, f"{spec} at {rev}", files, notes)
 
 
 # --------------------------------------------------------------------------- comparison rows
@@ -379,8 +434,9 @@ def _arrow(old: str, new: str) -> str:
 
 def terminal_text(report: DiffReport) -> str:
     r = report
-    lines = [f"old: {r.old.label}", f"new: {r.new.label}",
-             f"status: {side_status(r.old)} -> {side_status(r.new)}"]
+    lines = [f"old: {r.old.label}"] + [f"  note: {n}" for n in r.old.notes]
+    lines += [f"new: {r.new.label}"] + [f"  note: {n}" for n in r.new.notes]
+    lines.append(f"status: {side_status(r.old)} -> {side_status(r.new)}")
     if not r.compared:
         which = [s for s, side in (("old", r.old), ("new", r.new)) if side.design is None]
         who = "both designs are" if len(which) == 2 else f"the {which[0]} design is"

@@ -133,7 +133,7 @@ class Inputs:
     spec_sha256: str | None
     files: list[dict[str, Any]]
     options: dict[str, Any]
-    tool: dict[str, Any] = field(default_factory=tool_inputs)
+    tool: dict[str, Any] = field(default_factory=dict)  # see tool_inputs()
 
     def as_dict(self) -> dict[str, Any]:
         return {
@@ -159,7 +159,7 @@ def current_inputs(spec: Path, *, pdf: bool) -> Inputs:
         for role, path in extra_inputs(spec, data):
             files.append({"role": role, "path": str(path), "sha256": _sha256_file(path)})
     digest = hashlib.sha256(data).hexdigest() if data is not None else None
-    return Inputs(spec, digest, files, {"pdf": bool(pdf)})
+    return Inputs(spec, digest, files, {"pdf": bool(pdf)}, tool_inputs())
 
 
 def stamp_path(out_dir: Path) -> Path:

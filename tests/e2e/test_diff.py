@@ -9,11 +9,13 @@ from __future__ import annotations
 import re
 import shutil
 import subprocess
+from pathlib import Path
 
 import pytest
 
 from docgen.cli import main
 from docgen.diff import compare, load_side
+from docgen.errors import SpecError, SpecIssue
 
 from ..conftest import DEMO
 
@@ -247,3 +249,33 @@ def test_rev_with_an_invalid_old_version_names_the_revision(repo, capsys):
     assert main(["diff", str(repo), "--rev", "HEAD"]) == 2
     err = capsys.readouterr().err
     assert f"{repo} at HEAD" in err and "output[0].load_max" in err
+
+
+def test_rev_reads_a_referenced_parts_library_at_the_same_revision(repo, monkeypatch):
+    import docgen.diff
+    import docgen.spec
+
+    root = repo.parent.parent
+    (root / "parts").mkdir()
+    (root / "specs" / "local.toml").write_text("# v1 local\n", encoding="utf-8")
+    (root / "parts" / "shared.toml").write_text("# v1 shared\n", encoding="utf-8")
+    repo.write_text(DEMO_TEXT + '\n[parts]\nlibrary = "../parts/shared.toml"\n',
+                    encoding="utf-8")
+    _git(root, "add", "-A")
+    _git(root, "commit", "-q", "-m", "spec with a library")
+    (root / "parts" / "shared.toml").write_text("# v2 shared, not committed\n", encoding="utf-8")
+
+    seen = {}
+
+    def fake_loader(path):
+        # the old spec sees the library as it was at the revision, at the same relative place
+        seen["library"] = (Path(path).parent / "../parts/shared.toml").read_bytes()
+        seen["spec"] = Path(path).read_text(encoding="utf-8")
+        raise SpecError(str(path), [SpecIssue("", "stop here")])
+
+    monkeypatch.setattr(docgen.spec, "load_requirements", fake_loader)
+    with pytest.raises(SpecError) as info:
+        docgen.diff.load_rev_side(repo, "HEAD")
+    assert info.value.path == f"{repo} at HEAD"
+    assert seen["library"] == b"# v1 shared\n"
+    assert 'library = "../parts/shared.toml"' in seen["spec"]
