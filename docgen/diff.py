@@ -309,7 +309,9 @@ def _same_field(a: Any, b: Any, threshold: float) -> bool:
     return a == b
 
 
-def compare_requirements(old: Any, new: Any, threshold: float) -> list[FieldChange]:
+def compare_requirements(old: Any, new: Any, threshold: float = 1e-12) -> list[FieldChange]:
+    """Every field whose validated value differs; ``threshold`` only absorbs the rounding of
+    unit conversion ("40 mA" vs "0.04 A"), it is not the user's value threshold."""
     a, b = flatten(old), flatten(new)
     rows = []
     for path in list(a) + [p for p in b if p not in a]:
@@ -388,7 +390,7 @@ def _caution_rows(old: Any, new: Any) -> list[CautionChange]:
 
 def compare(old: Side, new: Side, threshold: float = DEFAULT_THRESHOLD) -> DiffReport:
     report = DiffReport(old, new, threshold)
-    everything = compare_requirements(old.requirements, new.requirements, threshold)
+    everything = compare_requirements(old.requirements, new.requirements)
     report.document = [c for c in everything if c.path.startswith("project.")]
     report.requirements = [c for c in everything if not c.path.startswith("project.")]
     if old.design is None or new.design is None:

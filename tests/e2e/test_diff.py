@@ -92,6 +92,11 @@ def test_threshold_hides_small_value_moves(tmp_path):
         # |b - a| > 0.2 max(|a|, |b|) implies |b - a| / |a| > 20 %
         assert v.percent is None or abs(v.percent) > 20
     assert {v.id for v in coarse.values} <= {v.id for v in fine.values}
+    # the threshold filters values and margins, never the requirement changes themselves
+    assert [c.path for c in coarse.requirements] == ["output[0].load_max"]
+    assert [c.path for c in compare(a, load_side(_spec(tmp_path, "tiny.toml", _replace(
+        DEMO_TEXT, 'load_max = "40 mA"', 'load_max = "40.001 mA"'))), 0.5).requirements] == [
+        "output[0].load_max"]
 
 
 def test_tighter_ripple_limit_flips_the_ripple_check(tmp_path, capsys):
