@@ -40,7 +40,7 @@ class SwitchOn:
     converged: np.ndarray
 
 
-def switch_on(circuit: Circuit, *, periods: float = 2.0, steps_per_period: int = 4000) -> SwitchOn:
+def switch_on(circuit: Circuit, *, periods: float = 1.0, steps_per_period: int = 4000) -> SwitchOn:
     """First charging pulse of every operating point of ``circuit`` (see module notes)."""
     p = Params(circuit)
     load = build_load(p)
