@@ -33,6 +33,37 @@ def design_for(spec_path: Path) -> Design:
     return run(load_requirements(spec_path))
 
 
+def draw_plots(design: Design) -> dict[str, str]:
+    """Every figure of the report as SVG text, keyed by file stem."""
+    from .plots import figure_svg, histogram_plot, waveform_plot
+
+    v = design.values
+    limits = {"v_out_hi": v["output.v_upper_limit"].value,
+              "v_out_lo": v["output.v_lower_limit"].value}
+    plots = {}
+    if "trough" in design.waveforms:
+        plots["waveforms_trough"] = figure_svg(waveform_plot(
+            design.waveforms["trough"],
+            "Low line, full load, C at -tol, V_Z high, R +tol (the trough corner)",
+            {**limits, "trough": v["reservoir.valley_low"].value}))
+    if "nominal" in design.waveforms:
+        plots["waveforms_nominal"] = figure_svg(waveform_plot(
+            design.waveforms["nominal"], "Nominal mains, full load", limits))
+    if design.samples:
+        panels = [
+            {"metric": "v_out_max", "title": "Highest output voltage", "unit": "V",
+             "limits": [v["output.v_upper_limit"].value]},
+            {"metric": "v_out_pp", "title": "Output ripple", "unit": "mV", "scale": 1e3,
+             "limits": [v["output.ripple_max"].value]},
+            {"metric": "p_zener", "title": "Zener dissipation", "unit": "W",
+             "limits": [v["zener.p_allowed"].value]},
+            {"metric": "i_z_min", "title": "Zener current at the trough", "unit": "mA",
+             "scale": 1e3, "limits": [v["zener.i_min"].value]},
+        ]
+        plots["monte_carlo"] = figure_svg(histogram_plot(design.samples, panels))
+    return plots
+
+
 def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResult:
     loaded = load_requirements(spec_path)
     out_dir = out_root / safe_stem(spec_path)
@@ -48,18 +79,11 @@ def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResu
         write_atomic(target, json.dumps(payload, sort_keys=True, indent=1) + "\n")
         return BuildResult(spec_path, out_dir, "infeasible", [target], None, str(exc))
 
-    from .plots import capacitor_voltage_plot, figure_svg
     from .render.html import render_html
     from .render.results_json import results_json
 
     prepare_dir(out_dir)
-    wave = design.waveforms["low_line_full_load"]
-    fig = capacitor_voltage_plot(
-        wave, "Low line, full load, C at its low tolerance",
-        valley=design.values["reservoir.valley_low"].value,
-        v_z=design.values["zener.v_max"].value)
-    plots = {"capacitor_voltage": figure_svg(fig)}
-
+    plots = draw_plots(design)
     files: list[Path] = []
     results = results_json(design)
     html = render_html(design, plots)

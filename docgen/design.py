@@ -67,6 +67,9 @@ class Design:
     infeasible_reason: str = ""
     waveforms: dict[str, Any] = field(default_factory=dict)  # name -> arrays for plots
     corners: list[dict[str, Any]] = field(default_factory=list)
+    monte_carlo: dict[str, Any] = field(default_factory=dict)
+    samples: dict[str, Any] = field(default_factory=dict)  # metric -> array, for histograms
+    library: tuple[str, str] | None = None  # (path, sha256) of the parts library used
     tool_version: str = ""
 
     def counts(self) -> dict[str, int]:

@@ -60,6 +60,11 @@ ZENER_LOW = _eq(
     {"v": r"V_Z", "t": r"t_Z", "a": r"\alpha_Z", "d": r"\Delta T"},
     "temperature coefficient definition (common practice)",
 )
+ZENER_KNEE = _eq(
+    "zener.knee_voltage", "Knee voltage of the piecewise-linear zener model",
+    r"$v - $r \cdot $i", {"v": r"V_Z", "r": r"r_z", "i": r"I_{ZT}"},
+    "common practice: V_Z is specified at the test current I_ZT; r_z is the slope around it",
+)
 ZENER_IZMIN = _eq("zener.iz_min", "Minimum zener current", r"$k \cdot $i",
                   {"k": r"k_{ZK}", "i": r"I_{ZK}"},
                   SEDRA_SMITH + "; the exercise keeps I_Z above 5 x I_ZK")
@@ -80,6 +85,7 @@ RIPPLE_THROUGH_DIVIDER = _eq(
     {"o": r"V_{r,out}", "R": "R", "z": r"r_z"},
     SEDRA_SMITH + ": line regulation r_z / (R + r_z)",
 )
+IDENT = _eq("identity", "Carried over unchanged (no floor applies)", r"$x", {"x": "x"}, DEF)
 MIN2 = _eq("min.two", "Smaller of two limits", r"\min($a,\ $b)", {"a": "a", "b": "b"}, DEF)
 MAX2 = _eq("max.two", "Larger of two values", r"\max($a,\ $b)", {"a": "a", "b": "b"}, DEF)
 SEC_PEAK_NEEDED = _eq(
@@ -211,3 +217,60 @@ MEAN_FROM_PEAK = _eq("reservoir.mean", "Mean capacitor voltage", r"$p - \frac{$r
                      {"p": r"V_{C,pk}", "r": r"V_r"}, SEDRA_SMITH)
 ENERGY = _eq("reservoir.energy", "Energy stored in the reservoir", r"\frac{1}{2} \cdot $c \cdot $v^2",
              {"c": "C", "v": r"V_{C,max}"}, "capacitor energy, any physics text")
+
+# ---------------------------------------------------------------- circuit model for the engine
+WINDING_R = _eq(
+    "transformer.winding_resistance", "Secondary-referred winding resistance from regulation",
+    r"\frac{$g \cdot $v^2}{$s}", {"g": r"\mathrm{Reg}", "v": r"V_{sec}", "s": "S"},
+    "common practice: the regulation is taken as the resistive drop at rated current, "
+    "(V_NL - V_FL) = I_rated R_w",
+)
+LEAKAGE_L = _eq(
+    "transformer.leakage_inductance", "Leakage inductance estimate",
+    r"\frac{$k \cdot $r}{2 \pi \cdot $f}", {"k": r"k_X", "r": r"R_w", "f": "f"},
+    "common practice: leakage reactance a fraction of the winding resistance for small "
+    "mains transformers (estimate; give the measured value when known)",
+)
+ESR_TAN_DELTA = _eq(
+    "reservoir.esr_tan_delta", "ESR from the dissipation factor",
+    r"\frac{$t}{2 \pi \cdot $f \cdot $c}", {"t": r"\tan\delta", "f": r"f_r", "c": "C"},
+    "common practice: ESR = tan(delta) / (2 pi f C), makers' application guides",
+)
+ENGINE = _eq(
+    "engine.steady_state", "Periodic steady state of the rectifier circuit (numerical)",
+    r"\mathrm{steady\ state\ of\ the\ circuit\ model}",
+    {},
+    "docgen waveform engine: trapezoidal integration with an exponential diode, shooting on "
+    "the period map; checked against scipy.integrate.solve_ivp in the test suite",
+)
+ENGINE_SWITCH_ON = _eq(
+    "engine.switch_on", "Switch-on surge (numerical)",
+    r"\mathrm{first\ charging\ pulse,\ empty\ capacitor,\ closed\ at\ the\ crest}",
+    {},
+    "docgen waveform engine (switch-on transient); worst switching instant per common practice",
+)
+CAP_RIPPLE_CURRENT = _eq(
+    "reservoir.ripple_current_table", "Capacitor ripple current estimate",
+    r"$i \cdot \sqrt{$k^2 - 1}", {"i": r"I_{DC}", "k": r"k_{rms}"},
+    "REFERENCES-style derivation: I_C,rms = sqrt(I_rect,rms^2 - I_DC^2) with the table "
+    "ratio I_rect,rms = k_rms I_DC (common practice)",
+)
+SURGE_ESTIMATE = _eq(
+    "rectifier.surge_estimate", "Switch-on surge estimate (empty capacitor, closed at the crest)",
+    r"\frac{$v}{$r}", {"v": r"V_{C,max}", "r": r"R_w"},
+    "common practice: the winding resistance limits the first charging pulse",
+)
+CAP_CORE_TEMP = _eq(
+    "reservoir.core_temperature", "Capacitor core temperature with ripple self-heating",
+    r"$t + $i^2 \cdot $e \cdot $r", {"t": r"T_{A,max}", "i": r"I_{C,rms}", "e": "ESR",
+                                     "r": r"R_{th}"},
+    "common practice: dT = I_rms^2 ESR R_th (makers' application guides)",
+)
+CAP_LIFE = _eq(
+    "reservoir.life", "Capacitor life at the operating temperature (10-degree rule)",
+    r"$l \cdot 2^{($a - $t)/10\,\mathrm{K}}", {"l": r"L_0", "a": r"T_0", "t": r"T_{core}"},
+    "common practice: life doubles for every 10 K below the rated temperature "
+    "(Arrhenius-based rule stated in electrolytic capacitor makers' application guides)",
+)
+EFFICIENCY = _eq("power.efficiency", "Efficiency", r"\frac{$o}{$i}",
+                 {"o": r"P_{out}", "i": r"P_{in}"}, DEF)

@@ -1,19 +1,36 @@
-"""Run the whole job for one requirements file: stages -> checks -> parts -> cautions -> Design."""
+"""Run the whole job for one requirements file: size -> verify at the corners -> check -> Design.
+
+Sizing uses the hand formulas of the stages. The waveform engine then simulates every corner
+(and the Monte Carlo samples); where a sized part falls short at some corner, a floor is raised
+for that part, the reason recorded, and the design is sized again (at most MAX_PASSES times).
+Fixed parts are never changed: their shortfall stays a failing check.
+"""
 
 from __future__ import annotations
+
+import math
+from collections.abc import Callable
+from dataclasses import dataclass
+from typing import Any
+from pathlib import Path
+
+import numpy as np
 
 from . import __version__
 from . import equations as eq
 from .cautions import STANDING, triggered_cautions
 from .checks import make_check, overall_status
+from .corners import MODEL_INPUTS, CornerResult, analyse
 from .design import Check, Design, PartChoice, Stage
-from .errors import InfeasibleDesign
+from .errors import InfeasibleDesign, SpecError, SpecIssue
 from .spec import LoadedSpec
 from .spec.models import Requirements
-from .stages import mains, rectifier, regulator_needs, reservoir, transformer, zener
+from .stages import mains, model, rectifier, regulator_needs, reservoir, transformer, zener
+from .stages.context import SizingContext
 from .trace import Assumption, Ledger, TraceError
 from .units import format_quantity as fq
-from .waveform_ideal import ideal_bridge_zener
+
+MAX_PASSES = 6
 
 STAGES = (
     (mains, mains.size_mains),
@@ -21,29 +38,116 @@ STAGES = (
     (transformer, transformer.size_transformer),
     (reservoir, reservoir.size_reservoir),
     (zener, zener.size_zener),
+    (model, model.model_circuit),
     (rectifier, rectifier.size_rectifier),
 )
 
 ASSUMPTIONS = (
-    Assumption("assume.hand_formulas",
-               "Ripple, diode currents and the secondary RMS current come from hand formulas "
-               "with an ideal source (constant-current discharge, table ratio for RMS current).",
-               "A. S. Sedra, K. C. Smith, Microelectronic Circuits (from memory); common practice"),
-    Assumption("assume.rated_at_full_load",
-               "The transformer's rated secondary voltage holds at its rated load and nominal "
-               "mains; at lighter load it is higher, which the low-line check ignores "
-               "(conservative).", "common practice"),
+    Assumption("assume.engine",
+               "Ratings and checks come from the waveform engine at 48 worst-case corners: "
+               "exponential diodes with series resistance, the transformer as an EMF behind its "
+               "winding resistance and leakage inductance, the capacitor with its ESR, the "
+               "zener as a knee voltage plus dynamic resistance. The hand formulas are shown "
+               "beside them for review.",
+               "docgen waveform engine, verified against scipy.integrate.solve_ivp"),
+    Assumption("assume.transformer_model",
+               "The transformer's EMF is its no-load voltage; its regulation is taken as a "
+               "resistive drop at rated current (winding resistance), plus an estimated "
+               "leakage inductance unless the file gives one.", "common practice"),
     Assumption("assume.no_load_peak",
-               "The no-load peak neglects the diode drop and takes the full regulation rise "
-               "(conservative for voltage ratings).", "common practice"),
+               "Voltage ratings (capacitor, diode reverse voltage) use the no-load peak at high "
+               "line with the diode drop neglected (conservative).", "common practice"),
     Assumption("assume.zener_model",
-               "The zener holds its voltage within tolerance and temperature drift above "
-               "I_Z,min; its dynamic resistance sets the line regulation.",
+               "The zener conducts above its knee voltage (the rated voltage at its tolerance "
+               "and temperature extremes) with its dynamic resistance; self-heating of the "
+               "junction is not modelled.",
                "A. S. Sedra, K. C. Smith, Microelectronic Circuits (from memory)"),
+    Assumption("assume.monte_carlo",
+               "Monte Carlo draws each tolerance independently and uniformly within its band "
+               "(mains range, capacitance, zener voltage with temperature, resistor, load).",
+               "common practice when the distributions are unknown"),
     Assumption("assume.not_covered",
                "Fuse, bleeder, heat sinking and creepage/clearance are outside this version's "
                "sizing; the safety section lists what to check by hand.", "scope of this version"),
 )
+
+
+@dataclass(frozen=True)
+class EngineCheck:
+    """A check evaluated on the engine's figures at every corner, reported at the worst one."""
+
+    id: str
+    title: str
+    metric: str
+    sense: str  # "max" or "min"
+    limit_id: str
+    symbol: str
+    unit: str
+    ref: str = ""
+    requirement: str = ""
+    nominal_line_only: bool = False  # ratings defined at nominal mains
+
+
+ENGINE_CHECKS = (
+    EngineCheck("check.headroom", "Drop across R at the trough >= headroom", "headroom", "min",
+                "output.headroom", r"V_{R,min}", "V", "R1", "output[0].headroom"),
+    EngineCheck("check.zener_current", "Zener current at the trough >= I_Z,min", "i_z_min", "min",
+                "zener.i_min", r"I_{Z,min}", "A", "D1", "output[0].zener.knee_current"),
+    EngineCheck("check.zener_power", "Zener dissipation <= derated rating", "p_zener", "max",
+                "zener.p_allowed", r"P_Z", "W", "D1", "margins.zener_power_derating"),
+    EngineCheck("check.resistor_power", "Series-resistor dissipation <= derated rating",
+                "p_r_series", "max", "zener.r_p_allowed", r"P_R", "W", "R1",
+                "margins.resistor_power_derating"),
+    EngineCheck("check.output_ripple", "Output ripple <= limit", "v_out_pp", "max",
+                "output.ripple_max", r"V_{r,out}", "V", "", "output[0].ripple_max"),
+    EngineCheck("check.output_high", "Highest output voltage <= upper limit", "v_out_max", "max",
+                "output.v_upper_limit", r"V_{out,max}", "V", "", "output[0].tolerance"),
+    EngineCheck("check.output_low", "Lowest output voltage >= lower limit", "v_out_min", "min",
+                "output.v_lower_limit", r"V_{out,min}", "V", "", "output[0].tolerance"),
+    EngineCheck("check.transformer_current", "Secondary RMS current <= rated current",
+                "i_sec_rms", "max", "transformer.i_rated", r"I_{sec,rms}", "A", "T1", "",
+                nominal_line_only=True),
+    EngineCheck("check.bridge_current", "Bridge output current <= derated I_F(AV)", "i_dc",
+                "max", "bridge.i_allowed", r"I_{DC}", "A", "BR1",
+                "margins.diode_current_derating"),
+    EngineCheck("check.cap_ripple_current", "Capacitor ripple current <= rating", "i_c_rms",
+                "max", "reservoir.i_ripple_rating", r"I_{C,rms}", "A", "C1", ""),
+)
+
+
+def _derived_metrics(cr: CornerResult) -> None:
+    m = cr.metrics
+    m["headroom"] = m["v_c_min"] - m["v_out_mean"]
+    m["i_dc"] = 2.0 * m["i_d_avg"]
+
+
+def _library(loaded: LoadedSpec):
+    ref = loaded.requirements.parts.library
+    if not ref:
+        return None
+    from .parts.library import load_library
+
+    if "://" in ref or ref.startswith("~"):
+        raise SpecError(str(loaded.path), [SpecIssue(
+            "parts.library", "must be a path relative to the requirements file, not a URL")])
+    base = loaded.path.resolve().parent
+    path = (base / ref).resolve()
+    root = _project_root(base)
+    if not path.is_relative_to(root):
+        raise SpecError(str(loaded.path), [SpecIssue(
+            "parts.library", f"{ref!r} points outside the project folder {root}; docgen reads "
+            "only files under the project")])
+    if not path.is_file():
+        raise SpecError(str(loaded.path), [SpecIssue("parts.library", f"{ref!r}: file not found")])
+    return load_library(path)
+
+
+def _project_root(folder: Path) -> Path:
+    """The enclosing git work tree, or the spec's parent folder when there is none."""
+    for candidate in (folder, *folder.parents):
+        if (candidate / ".git").exists():
+            return candidate
+    return folder.parent
 
 
 def _record_margins(spec: Requirements, L: Ledger) -> None:
@@ -56,130 +160,338 @@ def _record_margins(spec: Requirements, L: Ledger) -> None:
             defaulted="warn_band" not in m.model_fields_set)
 
 
-def _size(spec: Requirements, va_floor: float) -> Ledger:
+def _size(ctx: SizingContext) -> Ledger:
     L = Ledger()
     L.stage = "margins"
-    _record_margins(spec, L)
+    _record_margins(ctx.spec, L)
     for module, fn in STAGES:
         L.stage = module.__name__.rsplit(".", 1)[-1]
-        if fn is transformer.size_transformer:
-            fn(spec, L, va_floor=va_floor)
-        else:
-            fn(spec, L)
+        fn(ctx, L)
     L.stage = "reservoir"
     L.calc("reservoir.energy", eq.ENERGY, r"E_C", "J", "Energy stored at the highest voltage",
            {"c": "reservoir.c", "v": "reservoir.v_max"}, lambda c, v: 0.5 * c * v * v)
-    return L
-
-
-def _checks(spec: Requirements, L: Ledger) -> list[Check]:
-    w = spec.margins.warn_band
-    lo, hi = "low line, full load, C at -tol", "high line, least load"
-    nom = "nominal mains, full load"
-    specs = [
-        ("check.headroom", "Drop across R at the trough >= headroom", "regulator.headroom_low",
-         "output.headroom", "min", lo, "R1", "output[0].headroom"),
-        ("check.zener_current", "Zener current at the trough >= I_Z,min", "zener.i_z_trough",
-         "zener.i_min", "min", lo, "D1", "output[0].zener.knee_current"),
-        ("check.zener_power", "Zener dissipation <= derated rating", "zener.p", "zener.p_allowed",
-         "max", hi, "D1", "margins.zener_power_derating"),
-        ("check.resistor_power", "Series-resistor dissipation <= derated rating", "zener.r_p",
-         "zener.r_p_allowed", "max", hi, "R1", "margins.resistor_power_derating"),
-        ("check.output_ripple", "Output ripple <= limit", "output.ripple", "output.ripple_max",
-         "max", "high line, C at -tol", "", "output[0].ripple_max"),
-        ("check.output_high", "Highest output voltage <= upper limit", "zener.v_max",
-         "output.v_upper_limit", "max", "zener +tol, temperature extreme", "",
-         "output[0].tolerance"),
-        ("check.output_low", "Lowest output voltage >= lower limit", "zener.v_min",
-         "output.v_lower_limit", "min", "zener -tol, temperature extreme", "",
-         "output[0].tolerance"),
-        ("check.cap_voltage", "Capacitor voltage <= derated rating", "reservoir.v_max",
-         "reservoir.v_allowed", "max", "high line, no load", "C1",
-         "margins.capacitor_voltage_derating"),
-        ("check.bridge_piv", "Diode reverse voltage <= derated V_RRM", "bridge.piv",
-         "bridge.v_allowed", "max", "high line, no load", "BR1", "margins.diode_voltage_derating"),
-        ("check.bridge_current", "Diode average current <= derated I_F(AV)", "bridge.i_avg",
-         "bridge.i_allowed", "max", "high line", "BR1", "margins.diode_current_derating"),
-        ("check.transformer_current", "Secondary RMS current <= rated current",
-         "transformer.i_rms", "transformer.i_rated", "max", "high line", "T1", ""),
-    ]
-    return [
-        make_check(L, cid, title, vid, lid, sense, corner, w, ref=ref, requirement=req)
-        for cid, title, vid, lid, sense, corner, ref, req in specs
-    ]
-
-
-def _parts(L: Ledger) -> list[PartChoice]:
-    def v(i: str, unit: str | None = None) -> str:
-        return fq(L[i], unit or L.values[i].unit, 3)
-
-    return [
-        PartChoice("T1", "transformer", f"{v('transformer.v_rated')} {v('transformer.va')}",
-                   f"mains transformer, secondary {v('transformer.v_rated')} RMS at rated load, "
-                   f"at least {v('transformer.va')}, regulation at most "
-                   f"{v('transformer.regulation')}",
-                   reason="standard secondary and VA steps at or above the need",
-                   value_ids=("transformer.v_rated", "transformer.va", "transformer.regulation")),
-        PartChoice("BR1", "bridge", f"{v('bridge.v_rrm')} {v('bridge.i_f_rating')}",
-                   f"bridge rectifier, V_RRM at least {v('bridge.v_rrm')}, I_F(AV) at least "
-                   f"{v('bridge.i_f_rating')}",
-                   reason="standard rating classes at or above the derated need",
-                   value_ids=("bridge.v_rrm", "bridge.i_f_rating")),
-        PartChoice("C1", "capacitor", f"{v('reservoir.c')} {v('reservoir.v_rating')}",
-                   f"aluminium electrolytic capacitor, {v('reservoir.c')} "
-                   f"(tolerance {v('reservoir.tol')}), at least {v('reservoir.v_rating')}",
-                   reason="E6 value at or above the need; standard voltage step",
-                   value_ids=("reservoir.c", "reservoir.v_rating")),
-        PartChoice("R1", "resistor", f"{v('zener.r')} {v('zener.r_p_rating')}",
-                   f"resistor {v('zener.r')}, at least {v('zener.r_p_rating')}",
-                   reason="E24 value at or below the largest allowed; standard power class",
-                   value_ids=("zener.r", "zener.r_p_rating")),
-        PartChoice("D1", "zener", f"{v('zener.v_nom')} {v('zener.p_rating')}",
-                   f"zener diode {v('zener.v_nom')} +/-{v('zener.tol')}, at least "
-                   f"{v('zener.p_rating')}",
-                   reason="standard power class at or above the derated need",
-                   value_ids=("zener.v_nom", "zener.p_rating")),
-    ]
-
-
-def run(loaded: LoadedSpec) -> Design:
-    """Size, check and collect everything for one loaded requirements file.
-
-    Raises InfeasibleDesign when no design of the chosen kind meets the requirements.
-    """
-    spec = loaded.requirements
-    va_floor = 0.0
-    for _ in range(4):
-        try:
-            L = _size(spec, va_floor)
-        except (TraceError, ArithmeticError, ValueError) as exc:
-            # Requirements that pass validation can still be physically contradictory in a way
-            # that surfaces as a non-finite or undefined value; never report such numbers.
-            raise InfeasibleDesign(
-                f"the requirements lead to an undefined value while sizing ({exc})") from None
-        # The secondary current is known only once the regulator is sized; raise the VA
-        # rating and size again if the first estimate was short (sized transformers only).
-        need = L["transformer.i_rms"] * L["transformer.v_rated"]
-        if spec.transformer.secondary is not None or need <= L["transformer.va"] * (1 + 1e-9):
-            break
-        va_floor = need
-    else:  # pragma: no cover - the VA steps are finite, so the loop settles quickly
-        raise InfeasibleDesign("the transformer VA rating did not settle")
-
-    L.stage = "reservoir"
     L.calc("reservoir.v_allowed", eq.SCALE, r"V_{C,allow}", "V",
            "Capacitor voltage allowed (derated)",
            {"v": "reservoir.v_rating", "k": "margins.cap_voltage"}, lambda v, k: v * k)
-    checks = _checks(spec, L)
-    waveforms = {
-        "low_line_full_load": ideal_bridge_zener(
-            v_pk_sec=2**0.5 * L["transformer.v_low_fl"], v_f=L["rect.v_f"], freq=L["mains.freq"],
-            c=L["reservoir.c_min"], r=L["zener.r"], v_z=L["zener.v_max"]),
+    return L
+
+
+def _worst(cr: CornerResult, chk: EngineCheck) -> tuple[float, int]:
+    values = cr.corner_metric(chk.metric)
+    mask = np.isfinite(values)
+    if chk.nominal_line_only:
+        mask &= np.array([n == "nominal mains" for n in cr.corners.line_name])
+    if not mask.any():
+        return math.nan, -1
+    masked = np.where(mask, values, -np.inf if chk.sense == "max" else np.inf)
+    k = int(np.argmax(masked) if chk.sense == "max" else np.argmin(masked))
+    return float(values[k]), k
+
+
+def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
+    """Raise floors for sized parts that the engine found short; True if anything changed."""
+    spec = ctx.spec
+    fixed_t = bool(spec.transformer.part) or spec.transformer.secondary is not None
+    changed = False
+
+    def worst(check_id: str) -> tuple[float, str]:
+        chk = next(c for c in ENGINE_CHECKS if c.id == check_id)
+        value, k = _worst(cr, chk)
+        return value, cr.corners.name[k] if k >= 0 else ""
+
+    def short(check_id: str, limit_id: str, sense: str) -> bool:
+        if limit_id not in L:
+            return False
+        value, _ = worst(check_id)
+        limit = L[limit_id]
+        return math.isfinite(value) and (value > limit if sense == "max" else value < limit)
+
+    if not fixed_t and short("check.transformer_current", "transformer.i_rated", "max"):
+        i, where = worst("check.transformer_current")
+        need = i * L["transformer.v_rated"]
+        changed |= ctx.floors.raise_to(
+            "va", need, f"the engine found {fq(i, 'A')} RMS in the secondary at {where}, above "
+            f"the {fq(L['transformer.i_rated'], 'A')} rating of a {fq(L['transformer.va'], 'VA')}"
+            " transformer")
+    if not fixed_t and short("check.headroom", "output.headroom", "min"):
+        from . import standards
+
+        v = L["transformer.v_rated"]
+        nxt = next((s for s in standards.SECONDARY_VOLTAGES if s > v * (1 + 1e-9)), v * 1.25)
+        changed |= ctx.floors.raise_to(
+            "secondary", nxt, f"at the trough the engine found less than the required headroom "
+            f"across R with a {fq(v, 'V')} secondary (winding resistance and diode drops)")
+    elif spec.output[0].series_resistor is None and short("check.zener_current", "zener.i_min",
+                                                          "min"):
+        i_z, where = worst("check.zener_current")
+        i_l = L["output.i_max"]
+        ceiling = L["zener.r"] * (i_l + i_z) / (i_l + L["zener.i_min"]) * 0.99
+        changed |= ctx.floors.lower_to(
+            "resistor_ceiling", ceiling, f"the engine found only {fq(i_z, 'A')} of zener "
+            f"current at {where} with R = {fq(L['zener.r'], 'ohm')} (winding resistance and "
+            "diode drops lower the trough below the hand estimate)")
+    if spec.reservoir.capacitance is None and not spec.reservoir.part and short(
+            "check.output_ripple", "output.ripple_max", "max"):
+        ripple, where = worst("check.output_ripple")
+        need = L["reservoir.c_required"] * ripple / L["output.ripple_max"] * 1.05
+        changed |= ctx.floors.raise_to(
+            "capacitance", need, f"the engine found {fq(ripple, 'V')} output ripple at {where}")
+    if spec.output[0].zener.power is None and short("check.zener_power", "zener.p_allowed",
+                                                    "max"):
+        p, where = worst("check.zener_power")
+        changed |= ctx.floors.raise_to(
+            "zener_power", p / spec.margins.zener_power_derating,
+            f"the engine found {fq(p, 'W')} in the zener at {where}")
+    if spec.output[0].resistor_power is None and short(
+            "check.resistor_power", "zener.r_p_allowed", "max"):
+        p, where = worst("check.resistor_power")
+        changed |= ctx.floors.raise_to(
+            "resistor_power", p / spec.margins.resistor_power_derating,
+            f"the engine found {fq(p, 'W')} in the series resistor at {where}")
+    if not spec.rectifier.part and short("check.bridge_current", "bridge.i_allowed", "max"):
+        i, where = worst("check.bridge_current")
+        changed |= ctx.floors.raise_to(
+            "bridge_current", i / spec.margins.diode_current_derating,
+            f"the engine found {fq(i, 'A')} average output current at {where}")
+    return changed
+
+
+def _engine_values(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]:
+    """Trace the worst-corner engine figures and turn them into checks."""
+    spec = ctx.spec
+    w = spec.margins.warn_band
+    L.stage = "corners"
+    checks: list[Check] = []
+    for chk in ENGINE_CHECKS:
+        if chk.limit_id not in L:
+            continue
+        value, k = _worst(cr, chk)
+        if k < 0:
+            raise InfeasibleDesign(
+                f"the waveform engine did not converge at any corner for {chk.title.lower()}; "
+                "no number is reported that was not converged to")
+        vid = f"engine.{chk.id.split('.', 1)[1]}"
+        L.measured(vid, eq.ENGINE, chk.symbol, value, chk.unit,
+                   f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)",
+                   MODEL_INPUTS, cr.corners.name[k])
+        checks.append(make_check(L, chk.id, chk.title, vid, chk.limit_id, chk.sense,
+                                 cr.corners.name[k], w, ref=chk.ref,
+                                 requirement=chk.requirement))
+    # A corner the engine could not solve is a failing check of its own, never a number.
+    bad = [cr.corners.name[k] for k in range(cr.n_corners) if not cr.converged[k]]
+    L.given("engine.corners_not_converged", r"N_{nc}", float(len(bad)), "",
+            "Corners where the engine did not converge",
+            source="waveform engine" + (": " + "; ".join(bad) if bad else ""))
+    L.given("engine.corners_allowed", r"N_{nc,max}", 0.0, "", "Corners allowed to fail",
+            source="every corner must be solved")
+    checks.append(make_check(L, "check.engine_converged", "Every corner solved by the engine",
+                             "engine.corners_not_converged", "engine.corners_allowed", "max",
+                             (f"{len(bad)} corners, first: {bad[0]}" if bad else "all corners"),
+                             w))
+    # Switch-on surge through the bridge.
+    if cr.surge_converged:
+        L.measured("engine.surge_peak", eq.ENGINE_SWITCH_ON, r"I_{surge}", cr.surge_peak, "A",
+                   "Switch-on surge peak (engine)", MODEL_INPUTS, "high line, C +tol")
+        checks.append(make_check(L, "check.bridge_surge", "Switch-on surge <= I_FSM",
+                                 "engine.surge_peak", "bridge.i_fsm", "max",
+                                 "switch-on at the crest, high line, C +tol", w, ref="BR1"))
+    # Nominal-corner figures for the summary: efficiency, VA, ripple current.
+    k = cr.nominal_index
+    where = cr.corners.name[k]
+    for metric, vid, sym, unit, title in (
+        ("p_in", "engine.p_in_nominal", r"P_{in}", "W", "Input power (engine, nominal)"),
+        ("p_out", "engine.p_out_nominal", r"P_{out}", "W", "Output power (engine, nominal)"),
+        ("va_sec", "engine.va_nominal", r"S_{sec}", "VA", "Secondary VA drawn (engine, nominal)"),
+        ("i_d_peak", "engine.i_d_peak_nominal", r"I_{D,pk}", "A",
+         "Repetitive peak diode current (engine, nominal)"),
+        ("conduction_angle", "engine.conduction_nominal", r"\theta", "rad",
+         "Conduction angle per pulse (engine, nominal)"),
+    ):
+        L.measured(vid, eq.ENGINE, sym, float(cr.metrics[metric][k]), unit, title, MODEL_INPUTS,
+                   where)
+    L.calc("engine.efficiency", eq.EFFICIENCY, r"\eta", "%", "Efficiency at nominal, full load",
+           {"o": "engine.p_out_nominal", "i": "engine.p_in_nominal"}, lambda o, i: o / i)
+    checks += _hand_checks(ctx, L, cr)
+    return checks
+
+
+def _hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]:
+    spec = ctx.spec
+    w = spec.margins.warn_band
+    out = [
+        make_check(L, "check.cap_voltage", "Capacitor voltage <= derated rating",
+                   "reservoir.v_max", "reservoir.v_allowed", "max", "high line, no load", w,
+                   ref="C1", requirement="margins.capacitor_voltage_derating"),
+        make_check(L, "check.bridge_piv", "Diode reverse voltage <= derated V_RRM", "bridge.piv",
+                   "bridge.v_allowed", "max", "high line, no load", w, ref="BR1",
+                   requirement="margins.diode_voltage_derating"),
+    ]
+    if "reservoir.life_rated" in L and spec.environment.required_life is not None:
+        L.stage = "corners"
+        L.given("env.required_life", r"L_{req}", spec.environment.required_life, "h",
+                "Required capacitor life")
+        L.given("reservoir.r_th", r"R_{th}", spec.reservoir.thermal_resistance, "K/W",
+                "Capacitor thermal resistance",
+                defaulted="thermal_resistance" not in spec.reservoir.model_fields_set)
+        i_c = float(np.nanmax(cr.corner_metric("i_c_rms")))
+        L.measured("engine.i_c_rms_max", eq.ENGINE, r"I_{C,rms}", i_c, "A",
+                   "Largest capacitor ripple current (engine)", MODEL_INPUTS, "worst corner")
+        L.calc("reservoir.t_core", eq.CAP_CORE_TEMP, r"T_{core}", "degC",
+               "Capacitor core temperature at the hottest ambient",
+               {"t": "env.t_max", "i": "engine.i_c_rms_max", "e": "reservoir.esr",
+                "r": "reservoir.r_th"}, lambda t, i, e, r: t + i * i * e * r)
+        L.calc("reservoir.life", eq.CAP_LIFE, r"L_C", "h", "Capacitor life expectancy",
+               {"l": "reservoir.life_rated", "a": "reservoir.life_temp", "t": "reservoir.t_core"},
+               lambda l, a, t: l * 2 ** ((a - t) / 10.0))
+        out.append(make_check(L, "check.cap_life", "Capacitor life >= required life",
+                              "reservoir.life", "env.required_life", "min",
+                              "hottest ambient, largest ripple current", w, ref="C1",
+                              requirement="environment.required_life"))
+    return out
+
+
+def _monte_carlo(ctx: SizingContext, L: Ledger, cr: CornerResult) -> dict:
+    if cr.samples is None:
+        return {}
+    n = len(cr.samples)
+    ok = cr.converged[cr.n_corners:].copy()
+    failing: dict[str, int] = {}
+    for chk in ENGINE_CHECKS:
+        if chk.limit_id not in L:
+            continue
+        vals = cr.sample_metric(chk.metric)
+        limit = L[chk.limit_id]
+        if chk.nominal_line_only:
+            continue  # a rating at nominal mains; samples span the whole mains range
+        bad = ~(vals <= limit) if chk.sense == "max" else ~(vals >= limit)
+        failing[chk.id] = int(np.sum(bad))
+        ok &= ~bad
+    summary = {}
+    for metric in ("v_out_mean", "v_out_pp", "p_zener", "p_r_series", "i_sec_rms", "i_z_min",
+                   "i_c_rms", "v_c_min"):
+        vals = cr.sample_metric(metric)
+        vals = vals[np.isfinite(vals)]
+        if vals.size:
+            summary[metric] = {
+                "min": float(vals.min()), "p1": float(np.percentile(vals, 1)),
+                "median": float(np.median(vals)), "p99": float(np.percentile(vals, 99)),
+                "max": float(vals.max()),
+            }
+    return {
+        "samples": n,
+        "seed": ctx.spec.analysis.seed,
+        "converged": int(np.sum(cr.converged[cr.n_corners:])),
+        "yield": float(np.sum(ok)) / n,
+        "failing": failing,
+        "quantities": summary,
     }
+
+
+def _corner_rows(cr: CornerResult) -> list[dict]:
+    rows = []
+    keys = ("v_c_min", "v_c_max", "ripple_pp", "v_out_min", "v_out_max", "v_out_pp", "i_z_min",
+            "i_z_max", "p_zener", "p_r_series", "i_sec_rms", "va_sec", "i_c_rms", "i_d_peak",
+            "i_dc", "p_in", "p_out")
+    for k in range(cr.n_corners):
+        row = {"name": cr.corners.name[k], "converged": bool(cr.converged[k]),
+               "line_factor": float(cr.corners.line[k]), "load": float(cr.corners.load[k]),
+               "c": float(cr.corners.c[k]), "v_z": float(cr.corners.v_z[k]),
+               "r": float(cr.corners.r[k])}
+        for key in keys:
+            v = float(cr.metrics[key][k])
+            row[key] = v if math.isfinite(v) else None
+        rows.append(row)
+    return rows
+
+
+def _parts(ctx: SizingContext, L: Ledger) -> list[PartChoice]:
+    def v(i: str) -> str:
+        return fq(L[i], L.values[i].unit, 3)
+
+    def line(ref: str, kind: str, value_text: str, generic: str, ids: tuple[str, ...]
+             ) -> PartChoice:
+        pick = ctx.picks.get(ref)
+        part = pick.part if pick else None
+        return PartChoice(
+            ref, kind, value_text,
+            description=(part.description or part.id) if part is not None else generic,
+            part_id=part.id if part is not None else "",
+            origin=pick.origin if pick else "sized",
+            reason=pick.reason if pick else "",
+            value_ids=ids)
+
+    return [
+        line("T1", "transformer", f"{v('transformer.v_rated')} {v('transformer.va')}",
+             f"mains transformer, secondary {v('transformer.v_rated')} RMS at rated load, "
+             f"at least {v('transformer.va')}, regulation at most {v('transformer.regulation')}",
+             ("transformer.v_rated", "transformer.va", "transformer.regulation")),
+        line("BR1", "bridge", f"{v('bridge.v_rrm')} {v('bridge.i_f_rating')}",
+             f"bridge rectifier, V_RRM at least {v('bridge.v_rrm')}, I_F(AV) at least "
+             f"{v('bridge.i_f_rating')}, I_FSM at least {v('bridge.i_fsm')}",
+             ("bridge.v_rrm", "bridge.i_f_rating", "bridge.i_fsm")),
+        line("C1", "capacitor", f"{v('reservoir.c')} {v('reservoir.v_rating')}",
+             f"aluminium electrolytic capacitor, {v('reservoir.c')} (tolerance "
+             f"{v('reservoir.tol')}), at least {v('reservoir.v_rating')}"
+             + (f", ripple current at least {v('engine.cap_ripple_current')}"
+                if "engine.cap_ripple_current" in L else ""),
+             ("reservoir.c", "reservoir.v_rating")),
+        line("R1", "resistor", f"{v('zener.r')} {v('zener.r_p_rating')}",
+             f"resistor {v('zener.r')} +/-{v('zener.r_tol')}, at least {v('zener.r_p_rating')}",
+             ("zener.r", "zener.r_p_rating")),
+        line("D1", "zener", f"{v('zener.v_nom')} {v('zener.p_rating')}",
+             f"zener diode {v('zener.v_nom')} +/-{v('zener.tol')}, at least "
+             f"{v('zener.p_rating')}", ("zener.v_nom", "zener.p_rating")),
+    ]
+
+
+def _guarded(fn: Callable[[], Any]) -> Any:
+    try:
+        return fn()
+    except (TraceError, ArithmeticError, ValueError) as exc:
+        if isinstance(exc, SpecError):
+            raise
+        # Requirements that pass validation can still be physically contradictory in a way
+        # that surfaces as a non-finite or undefined value; never report such numbers.
+        raise InfeasibleDesign(
+            f"the requirements lead to an undefined value while sizing ({exc})") from None
+
+
+def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
+    """Size, verify, check and collect everything for one loaded requirements file.
+
+    ``samples`` overrides the Monte Carlo sample count of the file (0 turns it off).
+    Raises InfeasibleDesign when no design of the chosen kind meets the requirements.
+    """
+    spec = loaded.requirements
+    ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=_library(loaded))
+    n_samples = spec.analysis.samples if samples is None else samples
+    env = spec.environment
+    for _ in range(MAX_PASSES):
+        ctx.picks.clear()
+        L = _guarded(lambda: _size(ctx))
+        cr = _guarded(lambda: analyse(L, 0, spec.analysis.seed, env.ambient_min,
+                                      env.ambient_max, surge=False))
+        _derived_metrics(cr)
+        if not _bumps(ctx, L, cr):
+            break
+    # Final run with the Monte Carlo samples and the switch-on surge on the settled design.
+    cr = _guarded(lambda: analyse(L, n_samples, spec.analysis.seed, env.ambient_min,
+                                  env.ambient_max))
+    _derived_metrics(cr)
+    checks = _engine_values(ctx, L, cr)
+    checks.sort(key=lambda c: [ch.id for ch in ENGINE_CHECKS].index(c.id)
+                if c.id in [ch.id for ch in ENGINE_CHECKS] else 100)
     cautions = list(STANDING) + triggered_cautions(
         L["reservoir.v_max"], L["transformer.v_high_nl"], L["reservoir.energy"], checks)
     stages = [Stage("margins", "Design margins", "Derating factors and design ratios used below.")]
     stages += [Stage(m.__name__.rsplit(".", 1)[-1], m.TITLE, m.INTRO) for m, _ in STAGES]
+    stages.append(Stage("corners", "Worst-case corners (waveform engine)",
+                        "Each value below is the worst over the 48 corners named in the "
+                        "worst-case section, from the waveform engine; the corner is given "
+                        "beside it."))
+    notes = [Assumption(f"assume.raised.{name}", f"Raised after the engine verification: "
+                        f"{reason}.", "docgen pipeline")
+             for name, reason in ctx.floors.reasons.items()]
     return Design(
         spec_path=str(loaded.path),
         spec_text=loaded.text,
@@ -189,10 +501,16 @@ def run(loaded: LoadedSpec) -> Design:
         values=dict(L.values),
         equations=dict(L.equations),
         checks=checks,
-        parts=_parts(L),
-        assumptions=list(ASSUMPTIONS),
+        parts=_parts(ctx, L),
+        assumptions=list(ASSUMPTIONS) + notes,
         cautions=cautions,
         status=overall_status(checks),
         tool_version=__version__,
-        waveforms=waveforms,
+        waveforms=cr.waveforms,
+        corners=_corner_rows(cr),
+        monte_carlo=_monte_carlo(ctx, L, cr),
+        samples=({m: cr.sample_metric(m) for m in ("v_out_max", "v_out_min", "v_out_pp",
+                                                   "p_zener", "i_z_min", "i_sec_rms")}
+                 if cr.samples is not None else {}),
+        library=(str(ctx.library.path), ctx.library.sha256) if ctx.library else None,
     )

@@ -5,15 +5,18 @@ from __future__ import annotations
 import io
 from typing import Any
 
+import numpy as np
+
 SVG_SALT = "docgen"
+GRID = {"lw": 0.3, "color": "#d0d4d9"}
 
 
-def _pyplot_free_figure(width_in: float, height_in: float):
+def _figure(width_in: float, height_in: float):
     import matplotlib
 
     matplotlib.rcParams["svg.hashsalt"] = SVG_SALT
     matplotlib.rcParams["font.family"] = "DejaVu Sans"
-    matplotlib.rcParams["font.size"] = 8.5
+    matplotlib.rcParams["font.size"] = 8.0
     from matplotlib.figure import Figure
 
     return Figure(figsize=(width_in, height_in))
@@ -26,24 +29,51 @@ def figure_svg(fig) -> str:
     return buf.getvalue()
 
 
-def capacitor_voltage_plot(wave: dict[str, Any], title: str, valley: float, v_z: float):
-    """Capacitor voltage and charging current over two mains periods."""
-    fig = _pyplot_free_figure(6.4, 3.4)
-    ax, ax_i = fig.subplots(2, 1, sharex=True, gridspec_kw={"height_ratios": [2.2, 1]})
-    t_ms = wave["t"] * 1e3
-    ax.plot(t_ms, wave["source"], color="#9aa5b1", lw=0.9, label="rectified secondary less 2 V_F")
-    ax.plot(t_ms, wave["v_c"], color="#0b5394", lw=1.6, label="capacitor voltage")
-    ax.axhline(valley, color="#b45f06", lw=0.9, ls="--", label="trough used in the checks")
-    ax.axhline(v_z, color="#38761d", lw=0.9, ls=":", label="highest zener voltage")
-    lo = min(v_z, wave["v_c"].min()) * 0.9
-    ax.set_ylim(lo, wave["source"].max() * 1.05)
-    ax.set_ylabel("V")
-    ax.set_title(title, fontsize=9, loc="left")
-    ax.legend(loc="lower right", fontsize=7, frameon=False, ncol=2)
-    ax.grid(True, lw=0.3, color="#d0d4d9")
-    ax_i.plot(t_ms, wave["i_charge"] * 1e3, color="#990000", lw=1.1)
-    ax_i.set_ylabel("charging mA")
-    ax_i.set_xlabel("time (ms)")
-    ax_i.grid(True, lw=0.3, color="#d0d4d9")
+def waveform_plot(wave: dict[str, Any], title: str, limits: dict[str, float]):
+    """Secondary voltage and current, capacitor voltage, diode pulses and output voltage over
+    two mains periods (engine waveforms)."""
+    fig = _figure(6.6, 5.2)
+    ax_v, ax_i, ax_o = fig.subplots(3, 1, sharex=True,
+                                    gridspec_kw={"height_ratios": [2.0, 1.4, 1.2]})
+    t_ms = (wave["t"] - wave["t"][0]) * 1e3
+    ax_v.plot(t_ms, np.abs(wave["v_sec"]), color="#9aa5b1", lw=0.9,
+              label="|secondary voltage|")
+    ax_v.plot(t_ms, wave["v_c"], color="#0b5394", lw=1.5, label="capacitor voltage")
+    if "trough" in limits:
+        ax_v.axhline(limits["trough"], color="#b45f06", lw=0.8, ls="--",
+                     label="hand-formula trough")
+    ax_v.set_ylabel("V")
+    ax_v.set_title(title, fontsize=8.5, loc="left")
+    ax_v.legend(loc="lower right", fontsize=6.5, frameon=False, ncol=3)
+    ax_v.grid(True, **GRID)
+    ax_i.plot(t_ms, wave["i_sec"] * 1e3, color="#7f6000", lw=0.9, label="secondary current")
+    ax_i.plot(t_ms, wave["i_d"] * 1e3, color="#990000", lw=1.1, ls="--", label="one diode")
+    ax_i.set_ylabel("mA")
+    ax_i.legend(loc="upper right", fontsize=6.5, frameon=False, ncol=2)
+    ax_i.grid(True, **GRID)
+    ax_o.plot(t_ms, wave["v_out"], color="#38761d", lw=1.2, label="output voltage")
+    for key, style in (("v_out_hi", "--"), ("v_out_lo", "--")):
+        if key in limits:
+            ax_o.axhline(limits[key], color="#a61b1b", lw=0.8, ls=style)
+    ax_o.set_ylabel("V out")
+    ax_o.set_xlabel("time (ms)")
+    ax_o.grid(True, **GRID)
     fig.align_ylabels()
+    return fig
+
+
+def histogram_plot(samples: dict[str, np.ndarray], panels: list[dict[str, Any]]):
+    """Monte Carlo distributions, one panel per quantity, with its limit marked."""
+    fig = _figure(6.6, 4.2)
+    axes = fig.subplots(2, 2).ravel()
+    for ax, panel in zip(axes, panels):
+        vals = np.asarray(samples[panel["metric"]], dtype=float)
+        vals = vals[np.isfinite(vals)] * panel.get("scale", 1.0)
+        ax.hist(vals, bins=30, color="#6fa8dc", edgecolor="#0b5394", lw=0.4)
+        for limit in panel.get("limits", ()):
+            ax.axvline(limit * panel.get("scale", 1.0), color="#a61b1b", lw=1.0, ls="--")
+        ax.set_title(panel["title"], fontsize=8, loc="left")
+        ax.set_xlabel(panel["unit"])
+        ax.grid(True, **GRID)
+    fig.tight_layout()
     return fig

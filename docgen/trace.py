@@ -186,5 +186,43 @@ class Ledger:
             )
         )
 
+    def measured(
+        self,
+        value_id: str,
+        equation: Equation,
+        symbol: str,
+        value: float,
+        unit: str,
+        title: str,
+        inputs: tuple[str, ...],
+        where: str,
+    ) -> float:
+        """Record a value computed numerically (waveform engine) rather than by a formula.
+
+        ``where`` names the operating point (corner) the value belongs to; the substituted form
+        shows the result and the corner, and ``inputs`` lists the traced values the simulation
+        was built from.
+        """
+        missing = [vid for vid in inputs if vid not in self.values]
+        if missing:
+            raise TraceError(f"{value_id}: unknown input ids {missing}")
+        self.equations.setdefault(equation.id, equation)
+        return self._store(
+            TracedValue(
+                id=value_id,
+                symbol=symbol,
+                value=float(value),
+                unit=unit,
+                title=title,
+                equation=equation.id,
+                latex=f"{symbol} = {equation.rhs}",
+                substituted=f"{symbol} = {latex_number(float(value), unit)}"
+                + r"\quad\mathrm{(" + where.replace(" ", r"\ ").replace("%", r"\%") + ")}",
+                inputs=tuple(dict.fromkeys(inputs)),
+                source=equation.source,
+                stage=self.stage,
+            )
+        )
+
     def ids_for_stage(self, stage: str) -> list[str]:
         return [v.id for v in self.values.values() if v.stage == stage]

@@ -154,7 +154,7 @@ def significant(value: float, digits: int = 4) -> str:
 
 
 def format_quantity(value: float, unit: str, digits: int = 4) -> str:
-    """SI value -> text with an engineering prefix, e.g. (0.0047, "F") -> "4.7 mF".
+    """SI value -> text with an engineering prefix, e.g. (0.047, "A") -> "47 mA".
 
     Capacitance is shown in microfarads from 1 uF to 1 F, as parts are marked.
     Ratios ("") are shown as percent when the unit is "%".

@@ -85,6 +85,26 @@ def traceability(design: Design) -> list[dict[str, Any]]:
     return ordered
 
 
+FIGURES = {
+    "waveforms_trough": ("waveforms", "Trough corner: low line, full load, capacitance at its low "
+                         "tolerance, zener high, resistor high. Secondary voltage and current, "
+                         "capacitor voltage, one diode's current pulses, output voltage."),
+    "waveforms_nominal": ("waveforms", "Nominal mains, full load, nominal-side corner."),
+    "monte_carlo": ("monte-carlo", "Monte Carlo distributions; dashed lines are the limits."),
+}
+
+MC_QUANTITIES = {
+    "v_out_mean": ("Output voltage (mean)", "V"),
+    "v_out_pp": ("Output ripple", "V"),
+    "i_z_min": ("Zener current at the trough", "A"),
+    "p_zener": ("Zener dissipation", "W"),
+    "p_r_series": ("Series-resistor dissipation", "W"),
+    "i_sec_rms": ("Secondary RMS current", "A"),
+    "i_c_rms": ("Capacitor ripple current", "A"),
+    "v_c_min": ("Capacitor trough voltage", "V"),
+}
+
+
 def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
     spec = design.requirements
     values: list[TracedValue] = list(design.values.values())
@@ -125,7 +145,17 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
         "sources": sources,
         "equations": sorted(design.equations.values(), key=lambda e: e.id),
         "trace_rows": traceability(design),
-        "plots": {name: _svg_uri(svg) for name, svg in plots.items()},
+        "figures": [
+            {"src": _svg_uri(plots[name]), "caption": caption, "section": section}
+            for name, (section, caption) in FIGURES.items() if name in plots
+        ],
+        "corners": design.corners,
+        "mc": design.monte_carlo,
+        "mc_rows": [
+            {"title": title, "unit": unit, "stats": design.monte_carlo["quantities"][key]}
+            for key, (title, unit) in MC_QUANTITIES.items()
+            if key in design.monte_carlo.get("quantities", {})
+        ],
         "values": design.values,
     }
 

@@ -47,6 +47,9 @@ def results_dict(design: Design) -> dict[str, Any]:
         "evaluations": evaluations,
         "checks": checks,
         "corners": design.corners,
+        "monte_carlo": design.monte_carlo,
+        "parts_library": ({"path": design.library[0], "sha256": design.library[1]}
+                          if design.library else None),
         "bom": [asdict(p) for p in design.parts],
         "assumptions": [asdict(a) for a in design.assumptions],
         "cautions": [asdict(c) for c in design.cautions],

@@ -137,7 +137,7 @@ def load_requirements(path: str | Path) -> LoadedSpec:
         raise SpecError(
             str(path), [SpecIssue("schema", "required but missing; write 'schema = 1' at the top")]
         )
-    if data.get("schema") != 1:
+    if type(data.get("schema")) is not int or data["schema"] != 1:
         raise SpecError(
             str(path),
             [SpecIssue("schema", f"unsupported version {data.get('schema')!r}; expected 1")],

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from typing import Any, Literal
 
-from pydantic import BaseModel, ConfigDict, Field, model_validator
+from pydantic import BaseModel, ConfigDict, Field, ValidationInfo, field_validator, model_validator
 
 from .quantities import (
     ApparentPower,
@@ -81,6 +81,11 @@ class Environment(Section):
     ambient_max: Temperature = q(40.0, "degC", "Highest ambient temperature around the parts.",
                                  "common practice")
 
+    required_life: Duration | None = q(
+        None, "s", "Required reservoir-capacitor life at the hottest ambient (e.g. "
+        "\"50000 h\"); checked when the capacitor's rated life is known.",
+    )
+
     @model_validator(mode="after")
     def _order(self) -> Environment:
         if self.ambient_min > self.ambient_max:
@@ -107,7 +112,13 @@ class Transformer(Section):
     leakage_inductance: Inductance | None = q(
         None, "H", "Secondary-referred leakage inductance (estimated when absent)."
     )
-    part: str = Field(default="", max_length=80, description="Part id of the fixed transformer.")
+    leakage_ratio: PositiveFraction = q(
+        0.2, "", "Leakage reactance over winding resistance, used to estimate the leakage "
+        "inductance when it is not given.",
+        "common practice: small mains transformers are mostly resistive",
+    )
+    part: str = Field(default="", max_length=80,
+                      description="Library part id of a fixed transformer (needs [parts]).")
 
     @model_validator(mode="after")
     def _fixed_pair(self) -> Transformer:
@@ -126,6 +137,8 @@ class Rectifier(Section):
         1.0, "V", "Forward drop of one diode at the charging-current peaks.",
         "common practice: ~1 V for a silicon rectifier at its charging peaks",
     )
+    part: str = Field(default="", max_length=80,
+                      description="Library part id of a fixed bridge or diode (needs [parts]).")
 
 
 class Reservoir(Section):
@@ -135,6 +148,17 @@ class Reservoir(Section):
     voltage_rating: Voltage | None = q(None, "V", "Fixed part: rated DC voltage.")
     tolerance: Fraction = q(0.20, "%", "Capacitance tolerance (minus side used for sizing).",
                             "common practice for aluminium electrolytics")
+    esr: NonNegResistance | None = q(None, "ohm", "Equivalent series resistance at the ripple "
+                                     "frequency (estimated from tan_delta when absent).")
+    tan_delta: PositiveFraction = q(0.12, "", "Dissipation factor at 100/120 Hz, for the ESR "
+                                    "estimate ESR = tan_delta / (2 pi f_r C).",
+                                    "common practice for small aluminium electrolytics")
+    thermal_resistance: PositiveFraction = q(
+        25.0, "K/W", "Capacitor core-to-ambient thermal resistance, for ripple self-heating.",
+        "common practice for a small radial can",
+    )
+    part: str = Field(default="", max_length=80,
+                      description="Library part id of a fixed capacitor (needs [parts]).")
     ripple_fraction: PositiveFraction = q(
         0.10, "%", "Design ripple at the regulator input as a fraction of the peak voltage "
         "(an upper bound; tightened when the output ripple needs it).",
@@ -163,6 +187,10 @@ class Zener(Section):
         description="Minimum zener current as a multiple of the knee current.",
         json_schema_extra={"unit": "", "default_source": "Sedra & Smith zener exercise uses 5 x I_ZK"},
     )
+    test_current: PositiveCurrent = q(
+        0.02, "A", "Test current at which the zener voltage is specified.",
+        "common practice for small zeners",
+    )
     dynamic_resistance: Resistance = q(
         10.0, "ohm", "Dynamic resistance r_z at the operating current.",
         "common practice for small zeners",
@@ -171,6 +199,8 @@ class Zener(Section):
         0.0006, "%/degC", "Temperature coefficient of the zener voltage.",
         "common practice for zeners above about 6 V",
     )
+    part: str = Field(default="", max_length=80,
+                      description="Library part id of a fixed zener (needs [parts]).")
 
 
 class Output(Section):
@@ -196,17 +226,25 @@ class Output(Section):
         None, "ohm", "Fixed part: zener series resistor (sized when absent)."
     )
     resistor_power: Power | None = q(None, "W", "Fixed part: series-resistor power rating.")
+    resistor_tolerance: Fraction = q(0.05, "%", "Series-resistor tolerance.",
+                                     "common practice (E24 +/-5 % grade)")
     zener: Zener = Field(default_factory=Zener, description="Zener diode data.")
 
-    @model_validator(mode="after")
-    def _loads(self) -> Output:
-        if self.load_min > self.load_max:
-            raise ValueError(
-                f"load_min ({self.load_min:g} A) is above load_max ({self.load_max:g} A)"
-            )
-        if self.tolerance >= 0.5:
-            raise ValueError("tolerance must be below 50 %")
-        return self
+    @field_validator("load_max")
+    @classmethod
+    def _above_min(cls, value: float, info: ValidationInfo) -> float:
+        low = info.data.get("load_min")
+        if low is not None and low > value:
+            raise ValueError(f"{value:g} A is below load_min ({low:g} A); expected "
+                             "load_max >= load_min")
+        return value
+
+    @field_validator("tolerance")
+    @classmethod
+    def _tolerance(cls, value: float) -> float:
+        if value >= 0.5:
+            raise ValueError("must be below 50 %")
+        return value
 
 
 class Margins(Section):
@@ -249,6 +287,27 @@ class Margins(Section):
         return self
 
 
+class Analysis(Section):
+    samples: int = Field(
+        default=400, ge=0, le=100_000,
+        description="Monte Carlo samples over the tolerances (0 turns Monte Carlo off).",
+        json_schema_extra={"unit": "", "default_source": "common practice"},
+    )
+    seed: int = Field(
+        default=1, ge=0, le=2**32 - 1,
+        description="Seed of the Monte Carlo generator; the same seed repeats the same samples.",
+        json_schema_extra={"unit": ""},
+    )
+
+
+class Parts(Section):
+    library: str = Field(
+        default="", max_length=400,
+        description="Approved-parts library file, relative to the requirements file; when "
+        "given, parts are picked from it instead of standard rating steps.",
+    )
+
+
 class Requirements(Section):
     """The whole requirements file."""
 
@@ -262,3 +321,5 @@ class Requirements(Section):
     output: list[Output] = Field(min_length=1, max_length=1,
                                  description="The output rail (one in this version).")
     margins: Margins = Field(default_factory=Margins)
+    analysis: Analysis = Field(default_factory=Analysis)
+    parts: Parts = Field(default_factory=Parts)

@@ -5,16 +5,16 @@ from __future__ import annotations
 import math
 
 from .. import equations as eq
-from ..spec.models import Requirements
 from ..trace import Ledger
+from .context import SizingContext
 
 TITLE = "Mains supply"
 INTRO = ("The supply range follows the tolerances in the requirements file; by default the "
          "IEC 60038 supply range of +/-10 % around nominal.")
 
 
-def size_mains(spec: Requirements, L: Ledger) -> None:
-    m = spec.mains
+def size_mains(ctx: SizingContext, L: Ledger) -> None:
+    m = ctx.spec.mains
     explicit = m.model_fields_set
     L.given("mains.v_nom", r"V_{nom}", m.nominal, "V", "Nominal mains voltage (RMS)",
             defaulted="nominal" not in explicit)

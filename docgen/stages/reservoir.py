@@ -8,8 +8,8 @@ from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
 from ..parts.eseries import preferred
-from ..spec.models import Requirements
 from ..trace import Ledger
+from .context import Pick, SizingContext, require
 
 TITLE = "Reservoir capacitor"
 INTRO = ("The capacitor carries the load between charging pulses. Its capacitance follows from "
@@ -21,11 +21,10 @@ INTRO = ("The capacitor carries the load between charging pulses. Its capacitanc
 MAX_CAPACITANCE = 1.0  # F; beyond this no practical reservoir exists for a small supply
 
 
-def size_reservoir(spec: Requirements, L: Ledger) -> None:
+def size_reservoir(ctx: SizingContext, L: Ledger) -> None:
+    spec = ctx.spec
     r = spec.reservoir
     m = spec.margins
-    L.given("reservoir.tol", r"t_C", r.tolerance, "%", "Capacitance tolerance",
-            defaulted="tolerance" not in r.model_fields_set)
     L.calc("reservoir.v_pk_low", eq.CAP_PEAK_LOW, r"V_{C,pk,lo}", "V",
            "Capacitor peak at low line, full load",
            {"v": "transformer.v_low_fl", "d": "rect.v_f"}, lambda v, d: math.sqrt(2) * v - 2 * d)
@@ -39,10 +38,19 @@ def size_reservoir(spec: Requirements, L: Ledger) -> None:
            "Regulator input current at high line (estimate with R_target)",
            {"v": "reservoir.v_pk_high", "z": "zener.v_min", "R": "regulator.r_target"},
            lambda v, z, R: (v - z) / R)
-    L.calc("reservoir.c_required", eq.CAP_FOR_RIPPLE, r"C_{req}", "F",
+    L.calc("reservoir.c_calc", eq.CAP_FOR_RIPPLE, r"C_{calc}", "F",
            "Capacitance for the allowed ripple at the largest input current",
-           {"i": "regulator.i_in_high_est", "f": "mains.ripple_freq", "v": "reservoir.ripple_allowed"},
+           {"i": "regulator.i_in_high_est", "f": "mains.ripple_freq",
+            "v": "reservoir.ripple_allowed"},
            lambda i, f, v: i / (f * v))
+    floor = ctx.floor(L, "capacitance", "reservoir.c_floor", r"C_{floor}", "F",
+                      "Capacitance floor")
+    if floor:
+        L.calc("reservoir.c_required", eq.MAX2, r"C_{req}", "F", "Capacitance required",
+               {"a": "reservoir.c_calc", "b": floor}, lambda a, b: max(a, b))
+    else:
+        L.calc("reservoir.c_required", eq.IDENT, r"C_{req}", "F", "Capacitance required",
+               {"x": "reservoir.c_calc"}, lambda x: x)
     if L["reservoir.c_required"] > MAX_CAPACITANCE:
         raise InfeasibleDesign(
             f"the output ripple limit allows only {L['reservoir.ripple_allowed'] * 1e3:.2f} mV "
@@ -50,15 +58,56 @@ def size_reservoir(spec: Requirements, L: Ledger) -> None:
             f"{L['reservoir.c_required']:.2f} F of reservoir capacitance; relax ripple_max or "
             "use a regulator with more ripple rejection"
         )
-    L.calc("reservoir.c_nominal_needed", eq.CAP_NOMINAL_NEEDED, r"C_{nom,req}", "F",
-           "Nominal capacitance covering the tolerance",
-           {"c": "reservoir.c_required", "t": "reservoir.tol"}, lambda c, t: c / (1 - t))
     L.given("margins.cap_voltage", r"k_{C,V}", m.capacitor_voltage_derating, "%",
             "Capacitor voltage derating",
             defaulted="capacitor_voltage_derating" not in m.model_fields_set)
     L.calc("reservoir.v_rating_needed", eq.DERATED_NEED, r"V_{C,rated,req}", "V",
            "Capacitor voltage rating needed", {"x": "reservoir.v_max", "k": "margins.cap_voltage"},
            lambda x, k: x / k)
+    L.calc("reservoir.i_ripple_est", eq.CAP_RIPPLE_CURRENT, r"I_{C,rms,est}", "A",
+           "Capacitor ripple current estimate (table ratio, high line)",
+           {"i": "regulator.i_in_high_est", "k": "margins.secondary_rms_factor"},
+           lambda i, k: i * math.sqrt(max(k * k - 1, 0.0)))
+
+    part = None
+    if r.part:
+        part = ctx.fixed_part("capacitor", r.part, "reservoir.part")
+        ctx.picks["C1"] = Pick("C1", "capacitor", "fixed", part, f"{part.id} named in the file")
+    elif r.capacitance is None and ctx.library is not None:
+        from ..parts.select import select_capacitor
+
+        sel = select_capacitor(
+            ctx.library.capacitors, capacitance=L["reservoir.c_required"],
+            include_tolerance=True, voltage=L["reservoir.v_max"],
+            voltage_derating=m.capacitor_voltage_derating,
+            ripple_current=L["reservoir.i_ripple_est"],
+            ripple_temperature_c=spec.environment.ambient_max)
+        part = require(sel, "reservoir capacitor")
+        ctx.picks["C1"] = Pick("C1", "capacitor", "library", part, sel.reason, sel.generic)
+    if part is not None:
+        src = f"library part {part.id}"
+        L.given("reservoir.tol", r"t_C", part.tolerance, "%", "Capacitance tolerance", source=src)
+        L.given("reservoir.c", "C", part.capacitance, "F", "Reservoir capacitance", source=src)
+        L.given("reservoir.v_rating", r"V_{C,rated}", part.voltage, "V",
+                "Capacitor voltage rating", source=src)
+        L.given("reservoir.i_ripple_rating", r"I_{C,rated}", part.ripple_current, "A",
+                f"Capacitor ripple-current rating at {part.ripple_temperature_c:g} degC",
+                source=src)
+        L.given("reservoir.esr", "ESR", part.esr_at(L["mains.ripple_freq"]), "ohm",
+                "Capacitor ESR at the ripple frequency", source=src)
+        L.given("reservoir.life_rated", r"L_0", part.life, "h", "Rated capacitor life",
+                source=src)
+        L.given("reservoir.life_temp", r"T_0", part.life_temperature_c, "degC",
+                "Temperature of the rated life", source=src)
+        L.calc("reservoir.c_min", eq.BOUND_LOW, r"C_{min}", "F", "Lowest capacitance (tolerance)",
+               {"x": "reservoir.c", "t": "reservoir.tol"}, lambda x, t: x * (1 - t))
+        return
+
+    L.given("reservoir.tol", r"t_C", r.tolerance, "%", "Capacitance tolerance",
+            defaulted="tolerance" not in r.model_fields_set)
+    L.calc("reservoir.c_nominal_needed", eq.CAP_NOMINAL_NEEDED, r"C_{nom,req}", "F",
+           "Nominal capacitance covering the tolerance",
+           {"c": "reservoir.c_required", "t": "reservoir.tol"}, lambda c, t: c / (1 - t))
     if r.capacitance is not None:
         L.given("reservoir.c", "C", r.capacitance, "F", "Reservoir capacitance (fixed part)")
     else:
@@ -79,5 +128,9 @@ def size_reservoir(spec: Requirements, L: Ledger) -> None:
         L.calc("reservoir.v_rating", eq.PICKED, r"V_{C,rated}", "V",
                "Capacitor voltage rating (standard step)", {"x": "reservoir.v_rating_needed"},
                lambda x: standards.next_at_or_above(x, standards.CAPACITOR_VOLTAGES))
+    fixed = r.capacitance is not None or r.voltage_rating is not None
+    ctx.picks["C1"] = Pick("C1", "capacitor", "fixed" if fixed else "sized",
+                           reason="ratings given in the file" if fixed else
+                           "E6 value at or above the need; standard voltage step")
     L.calc("reservoir.c_min", eq.BOUND_LOW, r"C_{min}", "F", "Lowest capacitance (tolerance)",
            {"x": "reservoir.c", "t": "reservoir.tol"}, lambda x, t: x * (1 - t))

@@ -7,8 +7,12 @@ import math
 from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
-from ..spec.models import Requirements
 from ..trace import Ledger
+from .context import Pick, SizingContext, require
+
+# A library transformer may exceed the needed secondary by at most this factor: a higher
+# secondary only heats the shunt regulator (common practice).
+MAX_SECONDARY_EXCESS = 1.5
 
 TITLE = "Transformer"
 INTRO = ("The rated secondary voltage is specified at rated load and nominal mains, so the "
@@ -17,12 +21,9 @@ INTRO = ("The rated secondary voltage is specified at rated load and nominal mai
          "drops. The no-load voltage is higher by the transformer's regulation.")
 
 
-def size_transformer(spec: Requirements, L: Ledger, va_floor: float = 0.0) -> None:
-    """Pick (or take) the secondary voltage and VA rating.
-
-    ``va_floor`` lets the pipeline raise the VA rating after the regulator is sized, when the
-    actual secondary current turns out above the first estimate.
-    """
+def size_transformer(ctx: SizingContext, L: Ledger) -> None:
+    """Pick (or take) the secondary voltage and VA rating."""
+    spec = ctx.spec
     t = spec.transformer
     res = spec.reservoir
     L.given("rect.v_f", r"V_F", spec.rectifier.diode_drop, "V",
@@ -50,52 +51,39 @@ def size_transformer(spec: Requirements, L: Ledger, va_floor: float = 0.0) -> No
     L.calc("transformer.v_rms_low_needed", eq.RMS_FROM_PEAK, r"V_{sec,lo}", "V",
            "Secondary RMS needed at low line, full load",
            {"v": "transformer.v_pk_needed"}, lambda v: v / math.sqrt(2))
-    L.calc("transformer.v_rated_needed", eq.RATED_FROM_LOW_LINE, r"V_{sec,req}", "V",
+    L.calc("transformer.v_rated_calc", eq.RATED_FROM_LOW_LINE, r"V_{sec,calc}", "V",
            "Rated secondary needed (nominal mains, rated load)",
            {"v": "transformer.v_rms_low_needed", "t": "mains.tol_low"},
            lambda v, t: v / (1 - t))
+    floor_v = ctx.floor(L, "secondary", "transformer.v_floor", r"V_{sec,floor}", "V",
+                        "Secondary voltage floor")
+    if floor_v:
+        L.calc("transformer.v_rated_needed", eq.MAX2, r"V_{sec,req}", "V",
+               "Rated secondary needed", {"a": "transformer.v_rated_calc", "b": floor_v},
+               lambda a, b: max(a, b))
+    else:
+        L.calc("transformer.v_rated_needed", eq.IDENT, r"V_{sec,req}", "V",
+               "Rated secondary needed", {"x": "transformer.v_rated_calc"}, lambda x: x)
     L.calc("transformer.i_rms_est", eq.SEC_RMS_CURRENT, r"I_{sec,rms,est}", "A",
            "Secondary RMS current estimate (table ratio)",
            {"k": "margins.secondary_rms_factor", "i": "regulator.i_in_design"},
            lambda k, i: k * i)
 
-    if t.secondary is not None:
+    if t.part:
+        part = ctx.fixed_part("transformer", t.part, "transformer.part")
+        ctx.picks["T1"] = Pick("T1", "transformer", "fixed", part, f"{part.id} named in the file")
+        _from_part(L, part)
+    elif t.secondary is not None:
         L.given("transformer.v_rated", r"V_{sec}", t.secondary, "V",
                 "Rated secondary voltage (fixed part)")
         L.given("transformer.va", "S", t.va, "VA", "Rated apparent power (fixed part)")
+        ctx.picks["T1"] = Pick("T1", "transformer", "fixed", reason="ratings given in the file")
     else:
-        need = L["transformer.v_rated_needed"]
-        try:
-            standards.next_at_or_above(need, standards.SECONDARY_VOLTAGES)
-        except standards.NoStandardValue:
-            raise InfeasibleDesign(
-                f"the output needs a rated secondary of {need:.1f} V, above the largest standard "
-                f"secondary ({standards.SECONDARY_VOLTAGES[-1]:g} V) this version sizes"
-            ) from None
-        L.calc("transformer.v_rated", eq.PICKED, r"V_{sec}", "V",
-               "Rated secondary voltage (standard step)",
-               {"x": "transformer.v_rated_needed"},
-               lambda x: standards.next_at_or_above(x, standards.SECONDARY_VOLTAGES))
-        L.calc("transformer.va_needed", eq.VA_NEEDED, r"S_{req}", "VA",
-               "Apparent power needed", {"v": "transformer.v_rated", "i": "transformer.i_rms_est"},
-               lambda v, i: v * i)
-        L.given("transformer.va_floor", r"S_{floor}", va_floor, "VA",
-                "Apparent power floor from the actual secondary current (second pass)",
-                source="pipeline: raised when the sized regulator draws more than estimated")
-        L.calc("transformer.va_sized", eq.MAX2, r"S_{need}", "VA", "Apparent power to provide",
-               {"a": "transformer.va_needed", "b": "transformer.va_floor"}, lambda a, b: max(a, b))
-        try:
-            standards.next_at_or_above(L["transformer.va_sized"], standards.TRANSFORMER_VA)
-        except standards.NoStandardValue:
-            raise InfeasibleDesign(
-                f"the design needs {L['transformer.va_sized']:.0f} VA, above the largest "
-                f"standard transformer ({standards.TRANSFORMER_VA[-1]:g} VA)"
-            ) from None
-        L.calc("transformer.va", eq.PICKED, "S", "VA", "Rated apparent power (standard step)",
-               {"x": "transformer.va_sized"},
-               lambda x: standards.next_at_or_above(x, standards.TRANSFORMER_VA))
+        _size_rating(ctx, L)
 
-    if t.regulation is not None:
+    if "transformer.regulation" in L:
+        pass
+    elif t.regulation is not None:
         L.given("transformer.regulation", r"\mathrm{Reg}", t.regulation, "%",
                 "Transformer regulation (from the file)")
     else:
@@ -116,3 +104,67 @@ def size_transformer(spec: Requirements, L: Ledger, va_floor: float = 0.0) -> No
     L.calc("transformer.v_high_nl", eq.LINE_HIGH, r"V_{sec,NL,hi}", "V",
            "Secondary at high line, no load", {"v": "transformer.v_nl", "t": "mains.tol_high"},
            lambda v, t: v * (1 + t))
+
+
+def _from_part(L: Ledger, part) -> None:
+    src = f"library part {part.id}"
+    L.given("transformer.v_rated", r"V_{sec}", part.secondary_voltage, "V",
+            "Rated secondary voltage", source=src)
+    L.given("transformer.va", "S", part.va, "VA", "Rated apparent power", source=src)
+    if part.regulation is not None:
+        L.given("transformer.regulation", r"\mathrm{Reg}", part.regulation, "%",
+                "Transformer regulation", source=src)
+    elif part.winding_resistance is not None:
+        L.given("transformer.regulation", r"\mathrm{Reg}",
+                part.winding_resistance * part.rated_current / part.secondary_voltage, "%",
+                "Transformer regulation (from the winding resistance)", source=src)
+
+
+def _size_rating(ctx: SizingContext, L: Ledger) -> None:
+    L.calc("transformer.va_needed", eq.VA_NEEDED, r"S_{req}", "VA",
+           "Apparent power needed", {"v": "transformer.v_rated_needed",
+                                     "i": "transformer.i_rms_est"},
+           lambda v, i: v * i)
+    floor = ctx.floor(L, "va", "transformer.va_floor", r"S_{floor}", "VA",
+                      "Apparent power floor")
+    if floor:
+        L.calc("transformer.va_sized", eq.MAX2, r"S_{need}", "VA", "Apparent power to provide",
+               {"a": "transformer.va_needed", "b": floor}, lambda a, b: max(a, b))
+    else:
+        L.calc("transformer.va_sized", eq.IDENT, r"S_{need}", "VA", "Apparent power to provide",
+               {"x": "transformer.va_needed"}, lambda x: x)
+    if ctx.library is not None:
+        from ..parts.select import select_transformer
+
+        need_v = L["transformer.v_rated_needed"]
+        sel = select_transformer(
+            ctx.library.transformers, secondary_voltage=need_v, va=L["transformer.va_sized"],
+            secondary_voltage_max=need_v * MAX_SECONDARY_EXCESS,
+            primary_voltage=ctx.spec.mains.nominal)
+        part = require(sel, "transformer")
+        ctx.picks["T1"] = Pick("T1", "transformer", "library", part, sel.reason, sel.generic)
+        _from_part(L, part)
+        return
+    need = L["transformer.v_rated_needed"]
+    try:
+        standards.next_at_or_above(need, standards.SECONDARY_VOLTAGES)
+    except standards.NoStandardValue:
+        raise InfeasibleDesign(
+            f"the output needs a rated secondary of {need:.1f} V, above the largest standard "
+            f"secondary ({standards.SECONDARY_VOLTAGES[-1]:g} V) this version sizes"
+        ) from None
+    L.calc("transformer.v_rated", eq.PICKED, r"V_{sec}", "V",
+           "Rated secondary voltage (standard step)", {"x": "transformer.v_rated_needed"},
+           lambda x: standards.next_at_or_above(x, standards.SECONDARY_VOLTAGES))
+    try:
+        standards.next_at_or_above(L["transformer.va_sized"], standards.TRANSFORMER_VA)
+    except standards.NoStandardValue:
+        raise InfeasibleDesign(
+            f"the design needs {L['transformer.va_sized']:.0f} VA, above the largest "
+            f"standard transformer ({standards.TRANSFORMER_VA[-1]:g} VA)"
+        ) from None
+    L.calc("transformer.va", eq.PICKED, "S", "VA", "Rated apparent power (standard step)",
+           {"x": "transformer.va_sized"},
+           lambda x: standards.next_at_or_above(x, standards.TRANSFORMER_VA))
+    ctx.picks["T1"] = Pick("T1", "transformer", "sized",
+                           reason="standard secondary and VA steps at or above the need")

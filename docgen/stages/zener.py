@@ -8,8 +8,8 @@ from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
 from ..parts.eseries import preferred
-from ..spec.models import Requirements
 from ..trace import Ledger
+from .context import Pick, SizingContext, require
 
 TITLE = "Zener shunt regulator"
 INTRO = ("The series resistor is the largest value that still keeps the minimum zener current "
@@ -27,7 +27,8 @@ def _r_max(a: float, b: float, i: float, f: float, c: float) -> float:
     return (b + math.sqrt(disc)) / (2 * i * f * c)
 
 
-def size_zener(spec: Requirements, L: Ledger) -> None:
+def size_zener(ctx: SizingContext, L: Ledger) -> None:
+    spec = ctx.spec
     out = spec.output[0]
     m = spec.margins
     L.calc("regulator.i_trough", eq.SUM2, r"I_T", "A", "Input current at the trough, full load",
@@ -50,12 +51,26 @@ def size_zener(spec: Requirements, L: Ledger) -> None:
                 f"supplies {L['regulator.i_trough'] * 1e3:.1f} mA; a larger secondary voltage "
                 "is needed"
             )
-        L.calc("zener.r_max", eq.ZENER_R_EXACT, r"R_{max}", "ohm",
-               "Largest series resistor keeping I_Z,min at the trough",
+        L.calc("zener.r_max_calc", eq.ZENER_R_EXACT, r"R_{max,calc}", "ohm",
+               "Largest series resistor keeping I_Z,min at the trough (hand formula)",
                {"a": "zener.a", "b": "zener.b", "i": "regulator.i_trough",
                 "f": "mains.ripple_freq", "c": "reservoir.c_min"}, _r_max)
-        L.calc("zener.r", eq.PREFERRED_DOWN, "R", "ohm", "Series resistor (E24, rounded down)",
-               {"x": "zener.r_max"}, lambda x: preferred(x, "E24", "down"))
+        ceiling = ctx.floor(L, "resistor_ceiling", "zener.r_ceiling", r"R_{ceil}", "ohm",
+                            "Series-resistor ceiling")
+        if ceiling:
+            L.calc("zener.r_max", eq.MIN2, r"R_{max}", "ohm", "Largest series resistor",
+                   {"a": "zener.r_max_calc", "b": ceiling}, lambda a, b: min(a, b))
+        else:
+            L.calc("zener.r_max", eq.IDENT, r"R_{max}", "ohm", "Largest series resistor",
+                   {"x": "zener.r_max_calc"}, lambda x: x)
+        resistor = _library_resistor(ctx, L) if ctx.library is not None else None
+        if resistor is not None:
+            L.given("zener.r", "R", resistor.resistance, "ohm", "Series resistor",
+                    source=f"library part {resistor.id}")
+        else:
+            L.calc("zener.r", eq.PREFERRED_DOWN, "R", "ohm",
+                   "Series resistor (E24, rounded down)",
+                   {"x": "zener.r_max"}, lambda x: preferred(x, "E24", "down"))
 
     # Low line, full load, lowest capacitance: the trough.
     L.calc("reservoir.ripple_low", eq.RIPPLE_WITH_R, r"V_{r,lo}", "V",
@@ -115,28 +130,83 @@ def size_zener(spec: Requirements, L: Ledger) -> None:
     L.calc("zener.r_p_rating_needed", eq.DERATED_NEED, r"P_{R,rated,req}", "W",
            "Resistor power rating needed", {"x": "zener.r_p", "k": "margins.resistor_power"},
            lambda x, k: x / k)
-    if out.zener.power is not None:
+    zpick = ctx.picks.get("D1")
+    if zpick is not None and zpick.part is not None:
+        part = zpick.part
+        L.given("zener.p_rating", r"P_{Z,rated}", part.power_at(spec.environment.ambient_max),
+                "W", f"Zener power allowed at {spec.environment.ambient_max:g} degC "
+                f"({part.power_reference} reference)", source=f"library part {part.id}")
+    elif out.zener.power is not None:
         L.given("zener.p_rating", r"P_{Z,rated}", out.zener.power, "W", "Zener power rating (fixed)")
+        ctx.picks["D1"] = Pick("D1", "zener", "fixed", reason="power rating given in the file")
     else:
         _pick(L, "zener.p_rating", r"P_{Z,rated}", "Zener power rating (standard class)",
-              "zener.p_rating_needed", standards.ZENER_POWERS, "zener")
-    if out.resistor_power is not None:
+              _with_floor(ctx, L, "zener_power", "zener.p_rating_needed", "zener.p_floor",
+                          r"P_{Z,floor}", "Zener rating floor"),
+              standards.ZENER_POWERS, "zener")
+        ctx.picks["D1"] = Pick("D1", "zener", "sized",
+                               reason="standard power class at or above the derated need")
+    rpick = ctx.picks.get("R1")
+    if rpick is not None and rpick.part is not None:
+        L.given("zener.r_p_rating", r"P_{R,rated}", rpick.part.power, "W",
+                "Resistor power rating", source=f"library part {rpick.part.id}")
+    elif out.resistor_power is not None:
         L.given("zener.r_p_rating", r"P_{R,rated}", out.resistor_power, "W",
                 "Resistor power rating (fixed)")
+        ctx.picks["R1"] = Pick("R1", "resistor", "fixed", reason="given in the file")
     else:
         _pick(L, "zener.r_p_rating", r"P_{R,rated}", "Resistor power rating (standard class)",
-              "zener.r_p_rating_needed", standards.RESISTOR_POWERS, "series resistor")
+              _with_floor(ctx, L, "resistor_power", "zener.r_p_rating_needed",
+                          "zener.r_p_floor", r"P_{R,floor}", "Resistor rating floor"),
+              standards.RESISTOR_POWERS, "series resistor")
+        ctx.picks["R1"] = Pick("R1", "resistor", "fixed" if out.series_resistor else "sized",
+                               reason="E24 value at or below the largest allowed; "
+                               "standard power class")
     L.calc("zener.p_allowed", eq.SCALE, r"P_{Z,allow}", "W", "Zener dissipation allowed (derated)",
            {"v": "zener.p_rating", "k": "margins.zener_power"}, lambda v, k: v * k)
     L.calc("zener.r_p_allowed", eq.SCALE, r"P_{R,allow}", "W",
            "Resistor dissipation allowed (derated)",
            {"v": "zener.r_p_rating", "k": "margins.resistor_power"}, lambda v, k: v * k)
 
+    rp = ctx.picks.get("R1")
+    if rp is not None and rp.part is not None:
+        L.given("zener.r_tol", r"t_R", rp.part.tolerance, "%", "Series-resistor tolerance",
+                source=f"library part {rp.part.id}")
+    else:
+        L.given("zener.r_tol", r"t_R", out.resistor_tolerance, "%", "Series-resistor tolerance",
+                defaulted="resistor_tolerance" not in out.model_fields_set)
+
     # Output voltage window.
     L.calc("output.v_upper_limit", eq.BOUND_HIGH, r"V_{out,hi,lim}", "V", "Output upper limit",
            {"x": "output.v_nom", "t": "output.tolerance"}, lambda x, t: x * (1 + t))
     L.calc("output.v_lower_limit", eq.BOUND_LOW, r"V_{out,lo,lim}", "V", "Output lower limit",
            {"x": "output.v_nom", "t": "output.tolerance"}, lambda x, t: x * (1 - t))
+
+
+def _with_floor(ctx: SizingContext, L: Ledger, name: str, need_id: str, floor_id: str,
+                symbol: str, title: str) -> str:
+    """The id of the need, raised to the verification floor when there is one."""
+    floor = ctx.floor(L, name, floor_id, symbol, "W", title)
+    if not floor:
+        return need_id
+    L.calc(need_id + "_floored", eq.MAX2, symbol.replace("floor", "need"), "W", title + " applied",
+           {"a": need_id, "b": floor}, lambda a, b: max(a, b))
+    return need_id + "_floored"
+
+
+def _library_resistor(ctx: SizingContext, L: Ledger):
+    """Series resistor from the library: E-series value at or below R_max, power from the
+    estimate at high line (raised by the verification floor when one is set)."""
+    from ..parts.select import select_resistor
+
+    spec = ctx.spec
+    est = (L["reservoir.v_pk_high"] - L["zener.v_min"]) ** 2 / L["zener.r_max"]
+    power = max(est, ctx.floors.resistor_power * spec.margins.resistor_power_derating)
+    sel = select_resistor(ctx.library.resistors, resistance=L["zener.r_max"], mode="down",
+                          power=power, power_derating=spec.margins.resistor_power_derating)
+    part = require(sel, "series resistor")
+    ctx.picks["R1"] = Pick("R1", "resistor", "library", part, sel.reason, sel.generic)
+    return part
 
 
 def _pick(L: Ledger, value_id: str, symbol: str, title: str, need_id: str,

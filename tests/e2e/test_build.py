@@ -14,7 +14,8 @@ from ..conftest import DATA, DEMO
 
 def test_demo_outputs_exist(demo_build):
     names = {p.name for p in demo_build.files}
-    assert {"report.html", "report.pdf", "results.json", "capacitor_voltage.svg"} <= names
+    assert {"report.html", "report.pdf", "results.json", "waveforms_trough.svg",
+                      "waveforms_nominal.svg", "monte_carlo.svg"} <= names
     assert demo_build.status in ("pass", "warn")
 
 
@@ -62,7 +63,7 @@ def test_outputs_are_byte_identical_across_builds(demo_build, tmp_path):
     from docgen.build import build_one
 
     again = build_one(DEMO, tmp_path, pdf=False)
-    for name in ("results.json", "report.html", "plots/capacitor_voltage.svg"):
+    for name in ("results.json", "report.html", "plots/waveforms_trough.svg", "plots/monte_carlo.svg"):
         assert (again.out_dir / name).read_bytes() == (demo_build.out_dir / name).read_bytes(), name
 
 

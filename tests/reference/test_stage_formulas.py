@@ -300,7 +300,7 @@ def test_w1_full_wave_peak_diode_current_and_conduction_angle(demo):
     # Vpk = 100 V, R_L = 10 kohm (I_L = 10 mA), Vr = 2 V -> i_D,max = 324 mA [derived], +/-0.5 %
     L = rectifier_ledger(demo, i_dc=100.0 / 10e3, v_pk=100.0, v_r=2.0)
     call_stage(rectifier.size_rectifier, spec, L)
-    assert L["bridge.i_peak"] == pytest.approx(0.324, rel=5e-3)
+    assert L["bridge.i_peak_low"] == pytest.approx(0.324, rel=5e-3)
     # REFERENCES §3 check: Vpk = 100 V, Vr = 2 V -> exact arccos(0.98) = 0.2003 rad (+/-0.1 %),
     # approximate sqrt(2 Vr / Vpk) = 0.2000 rad
     assert L["bridge.conduction_angle"] == pytest.approx(0.2003, rel=1e-3)
@@ -319,7 +319,7 @@ def test_peak_current_formula_bounds_the_ideal_diode_model(demo):
     c = i_dc / (2 * f * v_r)
     theta = math.acos(1 - v_r / v_pk)
     model = i_dc + 2 * math.pi * f * c * v_pk * math.sin(theta)
-    assert model <= L["bridge.i_peak"] <= model * (1 + v_r / v_pk)
+    assert model <= L["bridge.i_peak_low"] <= model * (1 + v_r / v_pk)
 
 
 def test_12v_bridge_conduction_angle(demo):
@@ -472,7 +472,7 @@ RECOMPUTE = {
     "bridge.piv": (lambda v: SQ2 * v["transformer.v_high_nl"],
                    "REFERENCES §4 bridge PIV = winding peak at high line, no load"),
     "bridge.i_avg": (lambda v: v["regulator.i_in_max"] / 2, "REFERENCES §4 I_DC/2 per diode"),
-    "bridge.i_peak": (
+    "bridge.i_peak_low": (
         lambda v: v["regulator.i_trough"] * (1 + 2 * math.pi * math.sqrt(
             v["reservoir.v_pk_low"] / (2 * v["reservoir.ripple_low"]))),
         "REFERENCES §3 full-wave i_D,max = I(1 + 2 pi sqrt(Vpk/(2 Vr)))"),
@@ -567,13 +567,6 @@ def test_demo_check_margins_agree_with_status(demo, dv):
     assert demo.status == expected_status
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="bug: docgen/stages/rectifier.py evaluates bridge.i_peak at low line with "
-    "regulator.i_trough, but a shunt regulator draws its largest current at high line "
-    "(regulator.i_in_max); the reported 'upper bound' is ~44 % below the same formula at the "
-    "high-line corner on the demo spec",
-)
 def test_demo_peak_diode_current_covers_the_high_line_corner(dv):
     # REFERENCES §3 full-wave i_D,max = I (1 + 2 pi sqrt(Vpk / (2 Vr))), an upper bound; a worst
     # case must cover every corner the design is checked at, including high line.

@@ -196,11 +196,6 @@ def test_load_min_above_load_max(tmp_path):
     assert_names(err, path, "output[0]", "load_min", "load_max", "0.05 A", "0.04 A")
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="bug: docgen/spec/models.py Output._loads is a model_validator, so the issue location "
-    "is 'output[0]' instead of the field path 'output[0].load_min' / 'output[0].load_max'",
-)
 def test_load_min_above_load_max_names_the_field_path(tmp_path):
     path = write(tmp_path, MINIMAL + 'load_min = "50 mA"\n')
     err = load_error(path)
@@ -281,11 +276,6 @@ def test_wrong_schema_version(tmp_path, value):
     assert_names(err, path, "schema", "unsupported version", "expected 1")
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="bug: docgen/spec/loader.py checks `data.get('schema') != 1`, and True == 1 in Python; "
-    "pydantic's Literal[1] then coerces True to 1, so 'schema = true' loads as version 1",
-)
 def test_schema_true_is_not_version_1(tmp_path):
     path = write(tmp_path, MINIMAL.replace("schema = 1", "schema = true"))
     err = load_error(path)
