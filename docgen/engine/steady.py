@@ -15,7 +15,9 @@ a few per cent of the period. Points leave the iteration as soon as they converg
 from __future__ import annotations
 
 import math
+import os
 from collections.abc import Sequence
+from concurrent.futures import ThreadPoolExecutor
 from dataclasses import dataclass, field, fields
 
 import numpy as np
@@ -36,7 +38,9 @@ STATUS_TEXT = {
 
 DEFAULT_STEPS_PER_PERIOD = 512
 COARSE_STEPS_PER_PERIOD = 128
-CHUNK = 4096  # points per vectorised block; bounds memory of the stored pass arrays
+CHUNK = 2048  # points per vectorised block; bounds memory of the stored pass arrays
+MIN_CHUNK = 256  # below this a block is not split further for threads
+MAX_THREADS = 4
 DENSE_FRACTION = 0.6  # share of fine steps placed in the conduction window
 WINDOW_THRESHOLD = 1e-4  # current / peak that bounds the conduction window
 CONDUCTION_THRESHOLD = 0.01  # current / peak that counts as conducting for conduction_angle
@@ -109,7 +113,9 @@ def simulate(
 ) -> SteadyState:
     """Periodic steady state of every operating point of ``circuit``.
 
-    steps_per_period: time steps per mains period on the fine grid (default 512).
+    steps_per_period: fine-grid time steps per mains period of a full-wave rectifier (default
+        512); a half-wave rectifier, with one pulse per period, gets the same number per pulse
+        (steps_per_period / 2 per period), most of them inside the conduction pulse.
     tol: converged when the Newton correction of the capacitor voltage is below tol * vpk.
     max_periods: cap on period-map evaluations per point (coarse and fine grids together).
     """
@@ -123,12 +129,24 @@ def simulate(
     status = np.full(n, NOT_CONVERGED, dtype=int)
     iters = np.zeros(n, dtype=int)
     waves: dict[int, dict[str, np.ndarray]] = {}
-    for start in range(0, n, CHUNK):
-        idx = np.arange(start, min(n, start + CHUNK))
-        q = p.take(idx)
+    # numpy releases the GIL inside array operations, so blocks of points run in parallel threads.
+    workers = max(1, min(os.cpu_count() or 1, MAX_THREADS))
+    size = min(CHUNK, max(MIN_CHUNK, -(-n // workers)))
+    blocks = [np.arange(s, min(n, s + size)) for s in range(0, n, size)]
+
+    def run(idx):
+        start = int(idx[0])
         local_keep = {k - start: k for k in keep if start <= k < start + len(idx)}
-        chunk = _Chunk(q, steps, tol, max_periods, local_keep)
+        chunk = _Chunk(p.take(idx), steps, tol, max_periods, local_keep)
         chunk.run()
+        return idx, local_keep, chunk
+
+    if workers > 1 and len(blocks) > 1:
+        with ThreadPoolExecutor(max_workers=workers) as pool:
+            done = list(pool.map(run, blocks))
+    else:
+        done = [run(idx) for idx in blocks]
+    for idx, local_keep, chunk in done:
         for name in METRICS:
             res[name][idx] = chunk.res[name]
         status[idx] = chunk.status
@@ -152,9 +170,10 @@ class _Chunk:
         self.p, self.tol, self.max_passes, self.keep = p, tol, max_periods, keep
         self.load = build_load(p)
         n = p.n
-        ratio = p.span / (2.0 * math.pi)
-        self.n_fine = max(8, int(round(steps * ratio)))
-        self.n_coarse = max(8, int(round(COARSE_STEPS_PER_PERIOD * ratio)))
+        # One pulse per pass in every topology, so each pass gets the steps of half a period:
+        # a half-wave pass covers a whole period but the extra off-time needs no resolution.
+        self.n_fine = max(8, steps // 2)
+        self.n_coarse = max(8, COARSE_STEPS_PER_PERIOD // 2)
         self.res = {name: np.full(n, np.nan) for name in METRICS}
         self.status = np.full(n, NOT_CONVERGED, dtype=int)
         self.iters = np.zeros(n, dtype=int)
@@ -254,7 +273,7 @@ class _Chunk:
         cols = active[good]
         qs, lds = q.take(np.flatnonzero(good)), ld.take(np.flatnonzero(good))
         phase = grid[:, cols]
-        m = _metrics(qs, lds, phase, r.i[:, good], r.junction[:, good], r.v_p[:, good])
+        m = _metrics(qs, lds, phase, r.i[:, good], r.v_p[:, good])
         for name, val in m.items():
             self.res[name][cols] = val
         self.status[cols] = OK
@@ -311,7 +330,7 @@ def _window_grid(nsteps: int, span: float, a: np.ndarray, b: np.ndarray) -> np.n
     return np.maximum.accumulate(ph, axis=0)
 
 
-def _metrics(p: Params, load: Load, phase, i, junction, v_p) -> dict[str, np.ndarray]:
+def _metrics(p: Params, load: Load, phase, i, v_p) -> dict[str, np.ndarray]:
     """Figures of one converged pulse period (full-wave: half a mains period, mirrored)."""
     # Trapezoid weights of the samples, normalised to an average over the pulse period.
     wts = np.zeros_like(phase)
@@ -325,6 +344,9 @@ def _metrics(p: Params, load: Load, phase, i, junction, v_p) -> dict[str, np.nda
     i_load = load.current(v_p)
     i_c = i - i_load
     e = p.vpk * np.sin(phase)
+    # Junction voltage from the diode law; in reverse bias it is clipped near -700 mvt, which
+    # changes the (nA-level) reverse-current loss only.
+    junction = p.mvt * np.log(np.maximum(1.0 + i / p.isat, 1e-300))
     i2 = avg(i * i)
     share = 0.5 if p.full_wave else 1.0  # one diode conducts in one of the two half periods
     out = {

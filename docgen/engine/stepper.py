@@ -36,7 +36,7 @@ class Solution:
     """Solution of the path equation at one instant (arrays over points)."""
 
     i: np.ndarray  # path current
-    junction: np.ndarray  # total junction voltage of the path's diodes
+    junction: np.ndarray | None  # total junction voltage of the path's diodes (if needed)
     v_p: np.ndarray  # capacitor terminal voltage
     i_c: np.ndarray  # capacitor current
     g1: np.ndarray  # load slope on the active segment
@@ -59,7 +59,7 @@ def solve_path(p: Params, load: Load, ep, a, z, r2) -> Solution:
             yb = vb + z * (g0b + g1b * vb)
             zpos = z > 0
             ib = (yb - a) / np.where(zpos, z, 1.0)
-            arg = np.maximum(ib / isat, -1.0 + 1e-300)
+            arg = np.maximum(ib / isat, -1.0 + 1e-15)
             fb = ep - r2 * ib - mvt * np.log1p(arg) - vb
             beyond = np.where(zpos, (ib <= -isat) | (fb > 0), a >= vb)
             k = k + beyond.astype(int)
@@ -73,10 +73,18 @@ def solve_path(p: Params, load: Load, ep, a, z, r2) -> Solution:
     x = (big_a + r_star * isat) / mvt + np.log(r_star * isat / mvt)
     w = wright_omega(x)
     i = (mvt / r_star) * w - isat
-    junction = big_a - r_star * i
     v_p = d0 + d1 * (a + z * i)
     i_c = i - (g0 + g1 * v_p)
-    return Solution(i, junction, v_p, i_c, g1, d1, r_star, w)
+    return Solution(i, big_a - r_star * i, v_p, i_c, g1, d1, r_star, w)
+
+
+def _solve_linear(isat, mvt, ep, a, z, d0, d1, g0, g1, r_star, lterm) -> Solution:
+    """solve_path for a load with one segment, with the per-step coefficients precomputed."""
+    big_a = ep - d0 - d1 * a
+    w = wright_omega((big_a + r_star * isat) / mvt + lterm)
+    i = (mvt / r_star) * w - isat
+    v_p = d0 + d1 * (a + z * i)
+    return Solution(i, None, v_p, i - (g0 + g1 * v_p), g1, d1, r_star, w)
 
 
 @dataclass
@@ -84,7 +92,6 @@ class PassResult:
     v_c_end: np.ndarray
     slope: np.ndarray  # d v_c_end / d v_c_start
     i: np.ndarray | None = None  # (N+1, n) path current
-    junction: np.ndarray | None = None
     v_p: np.ndarray | None = None
     i_end: np.ndarray | None = None
 
@@ -133,18 +140,25 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
 
     if store:
         out_i = np.empty_like(phase)
-        out_j = np.empty_like(phase)
         out_v = np.empty_like(phase)
-        out_i[0], out_j[0], out_v[0] = i, junction, v_p
+        out_i[0], out_v[0] = i, v_p
 
     # Per-step coefficients for the whole pass at once (fewer, larger array operations).
     emf = vpk * sin
     b_all = dt * (0.5 / c)
     z_all = b_all + esr
     any_l = bool(has_l.any())
+    r2_all = p.r_lin
     if any_l:
         kl_all = 2.0 * ind / dt
         r2_all = p.r_lin + kl_all
+    linear = not load.breaks
+    if linear:
+        g0, g1 = load.select(None)
+        d1_all = 1.0 / (1.0 + z_all * g1)
+        d0_all = -z_all * g0 * d1_all
+        rs_all = np.maximum(r2_all + d1_all * z_all, _R_MIN)
+        lt_all = np.log(rs_all * (p.isat / p.mvt))
     for k in range(nsteps):
         b = b_all[k]
         z = z_all[k]
@@ -152,11 +166,16 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
         if any_l:
             kl = kl_all[k]
             ep = emf[k + 1] + kl * i + v_l
-            s = solve_path(p, load, ep, a, z, r2_all[k])
+        else:
+            ep = emf[k + 1]
+        if linear:
+            s = _solve_linear(p.isat, p.mvt, ep, a, z, d0_all[k], d1_all[k], g0, g1, rs_all[k],
+                              lt_all[k])
+        else:
+            s = solve_path(p, load, ep, a, z, r2_all[k] if any_l else r2_all)
+        if any_l:
             on = s.i > 0
             v_l_new = np.where(on, kl * (s.i - i) - v_l, 0.0)
-        else:
-            s = solve_path(p, load, emf[k + 1], a, z, p.r_lin)
         vc_new = a + b * s.i_c
         if sensitivity:
             da = d_vc + b * d_ic
@@ -174,11 +193,11 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
             v_l = v_l_new
         i, i_c, v_c = s.i, s.i_c, vc_new
         if store:
-            out_i[k + 1], out_j[k + 1], out_v[k + 1] = i, s.junction, s.v_p
+            out_i[k + 1], out_v[k + 1] = i, s.v_p
 
     res = PassResult(v_c, d_vc, i_end=i)
     if store:
-        res.i, res.junction, res.v_p = out_i, out_j, out_v
+        res.i, res.v_p = out_i, out_v
     return res
 
 
