@@ -33,6 +33,31 @@ def design_for(spec_path: Path) -> Design:
     return run(load_requirements(spec_path))
 
 
+def schematic_for(design: Design) -> str:
+    """The circuit as drawn from the design's parts and values (SVG)."""
+    from .schematic import OutputDrawing, SchematicDrawing, schematic_svg
+
+    parts = {p.ref: p for p in design.parts}
+    out = design.requirements.output[0]
+    mains = design.requirements.mains
+
+    def label(ref: str) -> str:
+        p = parts[ref]
+        return f"{p.value_text}" + (f" ({p.part_id})" if p.part_id else "")
+
+    drawing = SchematicDrawing(
+        topology="bridge",
+        mains_text=f"{mains.nominal:g} V {mains.frequency:g} Hz",
+        transformer=f"T1 {label('T1')}",
+        rectifier=f"BR1 {label('BR1')}",
+        outputs=(OutputDrawing(
+            name=out.name, regulator="zener",
+            labels={"C1": label("C1"), "R1": label("R1"), "D1": label("D1")},
+            v_out_text=f"{out.voltage:g} V, {out.load_max * 1e3:g} mA"),),
+    )
+    return schematic_svg(drawing)
+
+
 def draw_plots(design: Design) -> dict[str, str]:
     """Every figure of the report as SVG text, keyed by file stem."""
     from .plots import figure_svg, histogram_plot, waveform_plot
@@ -40,7 +65,7 @@ def draw_plots(design: Design) -> dict[str, str]:
     v = design.values
     limits = {"v_out_hi": v["output.v_upper_limit"].value,
               "v_out_lo": v["output.v_lower_limit"].value}
-    plots = {}
+    plots = {"schematic": schematic_for(design)}
     if "trough" in design.waveforms:
         plots["waveforms_trough"] = figure_svg(waveform_plot(
             design.waveforms["trough"],
@@ -92,7 +117,10 @@ def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResu
         target = out_dir / "plots" / f"{name}.svg"
         write_atomic(target, svg)
         files.append(target)
-    for name, data in (("results.json", results), ("report.html", html)):
+    from .render.bom import bom_csv
+
+    for name, data in (("results.json", results), ("bom.csv", bom_csv(design)),
+                       ("report.html", html)):
         write_atomic(out_dir / name, data)
         files.append(out_dir / name)
     if pdf:

@@ -268,9 +268,11 @@ CAP_CORE_TEMP = _eq(
 )
 CAP_LIFE = _eq(
     "reservoir.life", "Capacitor life at the operating temperature (10-degree rule)",
-    r"$l \cdot 2^{($a - $t)/10\,\mathrm{K}}", {"l": r"L_0", "a": r"T_0", "t": r"T_{core}"},
+    r"\min\left($l \cdot 2^{($a - $t)/10\,\mathrm{K}},\ $m\right)",
+    {"l": r"L_0", "a": r"T_0", "t": r"T_{core}", "m": r"L_{cap}"},
     "common practice: life doubles for every 10 K below the rated temperature "
-    "(Arrhenius-based rule stated in electrolytic capacitor makers' application guides)",
+    "(Arrhenius-based rule stated in electrolytic capacitor makers' application guides); "
+    "extrapolation capped at about 15 years, where sealing and electrolyte loss take over",
 )
 EFFICIENCY = _eq("power.efficiency", "Efficiency", r"\frac{$o}{$i}",
                  {"o": r"P_{out}", "i": r"P_{in}"}, DEF)

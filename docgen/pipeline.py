@@ -31,6 +31,7 @@ from .trace import Assumption, Ledger, TraceError
 from .units import format_quantity as fq
 
 MAX_PASSES = 6
+LIFE_CAP = 15 * 8766 * 3600.0  # s; 15 years of 8766 h
 
 STAGES = (
     (mains, mains.size_mains),
@@ -199,16 +200,21 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
         value, k = _worst(cr, chk)
         return value, cr.corners.name[k] if k >= 0 else ""
 
+    band = spec.margins.warn_band
+
     def short(check_id: str, limit_id: str, sense: str) -> bool:
+        """True when a sized part would fail, or sit inside the warning band, at some corner."""
         if limit_id not in L:
             return False
         value, _ = worst(check_id)
         limit = L[limit_id]
-        return math.isfinite(value) and (value > limit if sense == "max" else value < limit)
+        if sense == "max":
+            return math.isfinite(value) and value > limit * (1 - band)
+        return math.isfinite(value) and value < limit * (1 + band)
 
     if not fixed_t and short("check.transformer_current", "transformer.i_rated", "max"):
         i, where = worst("check.transformer_current")
-        need = i * L["transformer.v_rated"]
+        need = i * L["transformer.v_rated"] / (1 - band)
         changed |= ctx.floors.raise_to(
             "va", need, f"the engine found {fq(i, 'A')} RMS in the secondary at {where}, above "
             f"the {fq(L['transformer.i_rated'], 'A')} rating of a {fq(L['transformer.va'], 'VA')}"
@@ -240,18 +246,18 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
                                                     "max"):
         p, where = worst("check.zener_power")
         changed |= ctx.floors.raise_to(
-            "zener_power", p / spec.margins.zener_power_derating,
+            "zener_power", p / spec.margins.zener_power_derating / (1 - band),
             f"the engine found {fq(p, 'W')} in the zener at {where}")
     if spec.output[0].resistor_power is None and short(
             "check.resistor_power", "zener.r_p_allowed", "max"):
         p, where = worst("check.resistor_power")
         changed |= ctx.floors.raise_to(
-            "resistor_power", p / spec.margins.resistor_power_derating,
+            "resistor_power", p / spec.margins.resistor_power_derating / (1 - band),
             f"the engine found {fq(p, 'W')} in the series resistor at {where}")
     if not spec.rectifier.part and short("check.bridge_current", "bridge.i_allowed", "max"):
         i, where = worst("check.bridge_current")
         changed |= ctx.floors.raise_to(
-            "bridge_current", i / spec.margins.diode_current_derating,
+            "bridge_current", i / spec.margins.diode_current_derating / (1 - band),
             f"the engine found {fq(i, 'A')} average output current at {where}")
     return changed
 
@@ -287,7 +293,7 @@ def _engine_values(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Chec
     checks.append(make_check(L, "check.engine_converged", "Every corner solved by the engine",
                              "engine.corners_not_converged", "engine.corners_allowed", "max",
                              (f"{len(bad)} corners, first: {bad[0]}" if bad else "all corners"),
-                             w))
+                             0.0))
     # Switch-on surge through the bridge.
     if cr.surge_converged:
         L.measured("engine.surge_peak", eq.ENGINE_SWITCH_ON, r"I_{surge}", cr.surge_peak, "A",
@@ -340,9 +346,13 @@ def _hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]
                "Capacitor core temperature at the hottest ambient",
                {"t": "env.t_max", "i": "engine.i_c_rms_max", "e": "reservoir.esr",
                 "r": "reservoir.r_th"}, lambda t, i, e, r: t + i * i * e * r)
+        L.given("reservoir.life_cap", r"L_{cap}", LIFE_CAP, "h",
+                "Longest life the 10-degree rule is trusted for",
+                source="common practice: about 15 years")
         L.calc("reservoir.life", eq.CAP_LIFE, r"L_C", "h", "Capacitor life expectancy",
-               {"l": "reservoir.life_rated", "a": "reservoir.life_temp", "t": "reservoir.t_core"},
-               lambda l, a, t: l * 2 ** ((a - t) / 10.0))
+               {"l": "reservoir.life_rated", "a": "reservoir.life_temp", "t": "reservoir.t_core",
+                "m": "reservoir.life_cap"},
+               lambda l, a, t, m: min(l * 2 ** ((a - t) / 10.0), m))
         out.append(make_check(L, "check.cap_life", "Capacitor life >= required life",
                               "reservoir.life", "env.required_life", "min",
                               "hottest ambient, largest ripple current", w, ref="C1",

@@ -10,6 +10,7 @@ from typing import Any
 from ..design import Design
 from ..trace import TracedValue
 from . import filters
+from .bom import bom_rows
 from .mathsvg import formula_data_uri
 
 
@@ -86,6 +87,8 @@ def traceability(design: Design) -> list[dict[str, Any]]:
 
 
 FIGURES = {
+    "schematic": ("schematic", "Circuit drawn from the design: designators, values and library "
+                  "part ids as chosen."),
     "waveforms_trough": ("waveforms", "Trough corner: low line, full load, capacitance at its low "
                          "tolerance, zener high, resistor high. Secondary voltage and current, "
                          "capacitor voltage, one diode's current pulses, output voltage."),
@@ -127,7 +130,9 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
                            key=lambda c: ({"fail": 0, "warn": 1, "pass": 2}[c.status], c.margin))
     sources = sorted({e.source for e in design.equations.values()})
     key_ids = ["transformer.v_rated", "transformer.va", "reservoir.c", "reservoir.v_rating",
-               "zener.r", "zener.p_rating", "output.ripple", "zener.p", "regulator.i_in_max"]
+               "zener.r", "zener.p_rating", "engine.output_ripple", "engine.zener_power",
+               "engine.resistor_power", "engine.transformer_current", "engine.va_nominal",
+               "engine.efficiency", "reservoir.life"]
     return {
         "d": design,
         "spec": spec,
@@ -149,6 +154,7 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
             {"src": _svg_uri(plots[name]), "caption": caption, "section": section}
             for name, (section, caption) in FIGURES.items() if name in plots
         ],
+        "bom_rows": bom_rows(design),
         "corners": design.corners,
         "mc": design.monte_carlo,
         "mc_rows": [

@@ -25,7 +25,8 @@ def _zener_part(ctx: SizingContext, L: Ledger, vz: float):
         return None
     from ..parts.select import select_zener
 
-    power = max(ctx.floors.zener_power, 1e-6)
+    # the floor is a rating; the selector divides the dissipation by the derating itself
+    power = max(ctx.floors.zener_power * spec.margins.zener_power_derating, 1e-6)
     sel = select_zener(ctx.library.zeners, voltage=vz, power=power,
                        ambient_c=spec.environment.ambient_max,
                        power_derating=spec.margins.zener_power_derating)

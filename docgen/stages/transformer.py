@@ -137,10 +137,14 @@ def _size_rating(ctx: SizingContext, L: Ledger) -> None:
         from ..parts.select import select_transformer
 
         need_v = L["transformer.v_rated_needed"]
+        # The lowest secondary at or above the need wins before price: every extra volt is
+        # dissipated in the regulator (common practice).
+        steps = sorted(p.secondary_voltage for p in ctx.library.transformers
+                       if p.secondary_voltage >= need_v * (1 - 1e-9))
+        ceiling = min(steps[0] * (1 + 1e-6), need_v * MAX_SECONDARY_EXCESS) if steps else None
         sel = select_transformer(
             ctx.library.transformers, secondary_voltage=need_v, va=L["transformer.va_sized"],
-            secondary_voltage_max=need_v * MAX_SECONDARY_EXCESS,
-            primary_voltage=ctx.spec.mains.nominal)
+            secondary_voltage_max=ceiling, primary_voltage=ctx.spec.mains.nominal)
         part = require(sel, "transformer")
         ctx.picks["T1"] = Pick("T1", "transformer", "library", part, sel.reason, sel.generic)
         _from_part(L, part)
