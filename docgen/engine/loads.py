@@ -74,3 +74,14 @@ def zener_node(p: Params, v: np.ndarray) -> dict[str, np.ndarray]:
     i_r = i_z + i_o
     v_n = v - r * i_r
     return {"v_n": v_n, "i_z": i_z, "i_out": i_o, "i_r": i_r}
+
+
+def typical_current(p: Params) -> np.ndarray:
+    """Rough mean load current, for starting values and step-size choices only."""
+    if p.load == "current":
+        return p.i_load + 0.0 * p.vpk
+    if p.load == "resistor":
+        return p.vpk / p.r_load
+    if p.load == "regulator":
+        return p.i_load + p.i_q
+    return np.maximum(p.vpk - p.v_z0, 0.0) / (p.r_series + p.r_z) + p.i_out

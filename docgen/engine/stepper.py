@@ -25,7 +25,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from .circuit import Params
-from .loads import Load
+from .loads import Load, typical_current
 from .omega import wright_omega
 
 _R_MIN = 1e-12  # ohm; keeps the closed form finite for a path with no resistance at all
@@ -145,7 +145,13 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
 
     # Per-step coefficients for the whole pass at once (fewer, larger array operations).
     emf = vpk * sin
-    b_all = dt * (0.5 / c)
+    # Capacitor: theta-method, theta = max(1/2, 1 - tau/h). It is the trapezoidal rule wherever
+    # the step resolves the fastest capacitor time constant tau (h <= 2 tau); on coarser steps the
+    # weight moves towards backward Euler so that the fast mode is damped in one step instead of
+    # ringing (the trapezoidal rule maps a mode with h >> tau to about minus itself).
+    theta = np.maximum(0.5, 1.0 - fast_time_constant(p, load, dt) / dt)
+    b_all = dt * theta / c  # weight of the new capacitor current
+    bh_all = dt * (1.0 - theta) / c  # weight of the old one
     z_all = b_all + esr
     any_l = bool(has_l.any())
     r2_all = p.r_lin
@@ -161,8 +167,9 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
         lt_all = np.log(rs_all * (p.isat / p.mvt))
     for k in range(nsteps):
         b = b_all[k]
+        bh = bh_all[k]
         z = z_all[k]
-        a = v_c + b * i_c
+        a = v_c + bh * i_c
         if any_l:
             kl = kl_all[k]
             ep = emf[k + 1] + kl * i + v_l
@@ -178,7 +185,7 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
             v_l_new = np.where(on, kl * (s.i - i) - v_l, 0.0)
         vc_new = a + b * s.i_c
         if sensitivity:
-            da = d_vc + b * d_ic
+            da = d_vc + bh * d_ic
             d_big_a = -s.d1 * da
             if any_l:
                 d_big_a += kl * d_i + d_vl
@@ -199,6 +206,19 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
     if store:
         res.i, res.v_p = out_i, out_v
     return res
+
+
+def fast_time_constant(p: Params, load: Load, dt: np.ndarray) -> np.ndarray:
+    """Shortest time constant of the capacitor over a step dt: through the load, or through a
+    conducting path (whose inductance, seen over one step, acts as 2 L / dt).
+
+    The path resistance uses the diode slope at a typical peak current (a few times the load
+    current); only its order of magnitude matters.
+    """
+    g_load = np.maximum.reduce([np.asarray(g) for g in load.g1]) if len(load.g1) > 1 else load.g1[0]
+    i_ref = np.maximum(5.0 * typical_current(p), 1e3 * p.isat)
+    g_path = 1.0 / (p.r_lin + p.mvt / i_ref + 2.0 * p.l_s / dt)
+    return p.c * (p.esr + 1.0 / (g_load + g_path))
 
 
 def node_voltage(load: Load, y: np.ndarray, z) -> np.ndarray:
