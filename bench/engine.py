@@ -51,9 +51,11 @@ def reference_vs_engine(names: list[str]) -> None:
         eng_total += t_eng
         print(f"{name:34s} {t_ref:8.3f} {t_eng:9.4f} {t_ref / t_eng:8.0f} {diff:13.2e}")
     n = len(names)
-    print(f"per operating point: reference {ref_total / n:.3f} s, engine (1 point per call) "
-          f"{eng_total / n * 1e3:.2f} ms -> engine {ref_total / eng_total:.0f}x faster; "
-          f"max relative difference {worst:.2e} over {', '.join(COMPARED)}")
+    print(
+        f"per operating point: reference {ref_total / n:.3f} s, engine (1 point per call) "
+        f"{eng_total / n * 1e3:.2f} ms -> engine {ref_total / eng_total:.0f}x faster; "
+        f"max relative difference {worst:.2e} over {', '.join(COMPARED)}"
+    )
     # Amortised: the same circuits repeated in one vectorised call per topology/load kind.
     batch = 200
     t_batch = 0.0
@@ -65,8 +67,10 @@ def reference_vs_engine(names: list[str]) -> None:
         t_batch += time.perf_counter() - t0
         assert got.converged.all()
     per_point = t_batch / (batch * n)
-    print(f"amortised in batches of {batch}: engine {per_point * 1e3:.3f} ms per point -> "
-          f"{ref_total / n / per_point:.0f}x faster than the reference")
+    print(
+        f"amortised in batches of {batch}: engine {per_point * 1e3:.3f} ms per point -> "
+        f"{ref_total / n / per_point:.0f}x faster than the reference"
+    )
     return refs
 
 
@@ -85,10 +89,16 @@ def ten_thousand() -> None:
     rng = np.random.default_rng(2024)
     n = 10_000
     for topology in ("bridge", "center-tap", "half-wave"):
-        circ = Circuit(topology, v_rms=12.0 * rng.uniform(0.85, 1.15, n), freq=50.0,
-                       r_s=rng.uniform(0.1, 1.0, n), l_s=rng.uniform(0.0, 2e-3, n),
-                       c=4700e-6 * rng.uniform(0.8, 1.2, n), esr=0.03,
-                       i_load=rng.uniform(0.05, 1.0, n))
+        circ = Circuit(
+            topology,
+            v_rms=12.0 * rng.uniform(0.85, 1.15, n),
+            freq=50.0,
+            r_s=rng.uniform(0.1, 1.0, n),
+            l_s=rng.uniform(0.0, 2e-3, n),
+            c=4700e-6 * rng.uniform(0.8, 1.2, n),
+            esr=0.03,
+            i_load=rng.uniform(0.05, 1.0, n),
+        )
         tracemalloc.start()
         t0, c0 = time.perf_counter(), time.process_time()
         got = simulate(circ, keep_waveforms=[0, n - 1])
@@ -96,9 +106,11 @@ def ten_thousand() -> None:
         _, peak = tracemalloc.get_traced_memory()
         tracemalloc.stop()
         rss = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024  # KiB -> MiB on Linux
-        print(f"{topology:10s}: {wall:5.2f} s wall ({cpu:5.2f} s CPU), peak traced memory "
-              f"{peak / 2**20:6.1f} MiB, process peak RSS {rss:6.1f} MiB, "
-              f"converged {int(got.converged.sum())}/{n}, mean passes {got.iterations.mean():.1f}")
+        print(
+            f"{topology:10s}: {wall:5.2f} s wall ({cpu:5.2f} s CPU), peak traced memory "
+            f"{peak / 2**20:6.1f} MiB, process peak RSS {rss:6.1f} MiB, "
+            f"converged {int(got.converged.sum())}/{n}, mean passes {got.iterations.mean():.1f}"
+        )
 
 
 def main() -> None:

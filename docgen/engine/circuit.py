@@ -99,7 +99,7 @@ def _broadcast(circuit: Circuit) -> tuple[dict[str, np.ndarray], int]:
     for name in _NUMERIC:
         arr = np.asarray(getattr(circuit, name), dtype=float)
         if arr.ndim > 1:
-            raise ValueError(f"Circuit.{name} must be a float or a 1-D array, got shape {arr.shape}")
+            raise ValueError(f"Circuit.{name} must be a float or a 1-D array, not {arr.shape}")
         raw[name] = arr
     try:
         arrays = np.broadcast_arrays(*raw.values())
@@ -107,7 +107,7 @@ def _broadcast(circuit: Circuit) -> tuple[dict[str, np.ndarray], int]:
         shapes = {k: v.shape for k, v in raw.items() if v.ndim}
         raise ValueError(f"Circuit fields do not broadcast to one length: {shapes}") from exc
     n = int(arrays[0].size) if arrays[0].ndim else 1
-    return {k: np.array(np.atleast_1d(a), dtype=float) for k, a in zip(raw, arrays)}, n
+    return {k: np.array(np.atleast_1d(a), dtype=float) for k, a in zip(raw, arrays, strict=True)}, n
 
 
 class Params:

@@ -38,7 +38,9 @@ class Load:
         return np.choose(k, self.g0), np.choose(k, self.g1)
 
     def take(self, idx: np.ndarray) -> Load:
-        return Load([b[idx] for b in self.breaks], [g[idx] for g in self.g0], [g[idx] for g in self.g1])
+        return Load(
+            [b[idx] for b in self.breaks], [g[idx] for g in self.g0], [g[idx] for g in self.g1]
+        )
 
 
 def build_load(p: Params) -> Load:

@@ -23,8 +23,8 @@ def wright_omega(x: np.ndarray) -> np.ndarray:
     if x.size == 1:  # one operating point: plain floats avoid numpy's per-call overhead
         return np.full(x.shape, _omega_scalar(float(x.reshape(-1)[0])))
     x = np.maximum(x, _X_MIN)
-    # Starting values: exp(x - exp(x)) on the left; Taylor series about x = 1 (omega(1) = 1, derivatives
-    # 1/2, 1/8, -1/32) in the middle; the asymptotic x - ln x + ln(x)/x on the right.
+    # Starting values: exp(x - exp(x)) on the left; Taylor series about x = 1 (omega(1) = 1,
+    # derivatives 1/2, 1/8, -1/32) in the middle; the asymptotic x - ln x + ln(x)/x on the right.
     d = x - 1.0
     taylor = 1.0 + d * (0.5 + d * (1.0 / 16.0 - d / 192.0))
     xr = np.maximum(x, 4.0)

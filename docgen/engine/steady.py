@@ -31,7 +31,8 @@ OK, NOT_CONVERGED, COLLAPSED, CONTINUOUS = 0, 1, 2, 3
 STATUS_TEXT = {
     OK: "converged",
     NOT_CONVERGED: "no convergence within max_periods",
-    COLLAPSED: "no steady state with a positive capacitor voltage (load exceeds what the source gives)",
+    COLLAPSED: "no steady state with a positive capacitor voltage (the load asks for more "
+    "than the source gives)",
     CONTINUOUS: "diode current does not return to zero within a pulse period (continuous "
     "conduction is outside the model)",
 }
@@ -97,11 +98,17 @@ class SteadyState:
             if f.name == "waveforms":
                 continue
             v = getattr(self, f.name)[k]
-            out[f.name] = bool(v) if f.name == "converged" else (int(v) if f.name in ("status", "iterations") else float(v))
+            if f.name == "converged":
+                out[f.name] = bool(v)
+            elif f.name in ("status", "iterations"):
+                out[f.name] = int(v)
+            else:
+                out[f.name] = float(v)
         return out
 
 
-METRICS = [f.name for f in fields(SteadyState) if f.name not in ("converged", "status", "iterations", "waveforms")]
+_NOT_METRICS = ("converged", "status", "iterations", "waveforms")
+METRICS = [f.name for f in fields(SteadyState) if f.name not in _NOT_METRICS]
 
 
 def simulate(
@@ -124,7 +131,7 @@ def simulate(
     steps = int(steps_per_period or DEFAULT_STEPS_PER_PERIOD)
     if steps < 16:
         raise ValueError("steps_per_period must be at least 16")
-    keep = sorted({int(k) % p.n if -p.n <= int(k) < p.n else _bad_index(k, p.n) for k in keep_waveforms})
+    keep = sorted({_index(k, p.n) for k in keep_waveforms})
     n = p.n
     res = {name: np.full(n, np.nan) for name in METRICS}
     status = np.full(n, NOT_CONVERGED, dtype=int)
@@ -160,8 +167,11 @@ def simulate(
     return SteadyState(**res, converged=converged, status=status, iterations=iters, waveforms=waves)
 
 
-def _bad_index(k, n):
-    raise IndexError(f"keep_waveforms index {k} out of range for {n} points")
+def _index(k, n: int) -> int:
+    k = int(k)
+    if not -n <= k < n:
+        raise IndexError(f"keep_waveforms index {k} out of range for {n} points")
+    return k % n
 
 
 class _Chunk:
@@ -235,7 +245,7 @@ class _Chunk:
         return r, q, ld, vn, conv, collapsed | continuous
 
     def _coarse(self, active: np.ndarray, grid: np.ndarray) -> np.ndarray:
-        """Coarse uniform grid: rough state and conduction window; returns points for the fine stage."""
+        """Coarse uniform grid: rough state and conduction window; returns the points to refine."""
         cap = max(1, self.max_passes // 2)
         out = []
         while active.size:
@@ -285,12 +295,12 @@ class _Chunk:
         for name, val in m.items():
             self.res[name][cols] = val
         self.status[cols] = OK
-        sel = np.flatnonzero(good)
-        for j, col in zip(sel, cols):
+        for pos, (j, col) in enumerate(zip(np.flatnonzero(good), cols, strict=True)):
             if int(col) in self.keep:
-                self.waves[int(col)] = _waveforms(q.take(np.array([j])), ld.take(np.array([j])),
-                                                  phase[:, list(cols).index(col)], r.i[:, j],
-                                                  r.v_p[:, j])
+                one = np.array([j])
+                self.waves[int(col)] = _waveforms(
+                    q.take(one), ld.take(one), phase[:, pos], r.i[:, j], r.v_p[:, j]
+                )
 
 
 def _initial_guess(p: Params) -> np.ndarray:

@@ -96,8 +96,15 @@ class PassResult:
     i_end: np.ndarray | None = None
 
 
-def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np.ndarray,
-              store: bool = True, sensitivity: bool = True) -> PassResult:
+def integrate(
+    p: Params,
+    load: Load,
+    phase: np.ndarray,
+    v_c0: np.ndarray,
+    i0: np.ndarray,
+    store: bool = True,
+    sensitivity: bool = True,
+) -> PassResult:
     """Integrate one pass over the per-point phase grid ``phase`` (shape (N+1, n), radians).
 
     The pass starts with capacitor voltage v_c0 and, where l_s > 0, inductor current i0 (where
@@ -119,8 +126,9 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
     d1l = 1.0 / (1.0 + esr * g1l)
     vp_l = (y_l - esr * g0l) * d1l
     i = np.where(has_l, i0, s0.i)
-    junction = np.where(has_l, np.where(i0 > 0, p.mvt * np.log1p(np.maximum(i0, 0) / p.isat), 0.0),
-                        s0.junction)
+    junction = np.where(
+        has_l, np.where(i0 > 0, p.mvt * np.log1p(np.maximum(i0, 0) / p.isat), 0.0), s0.junction
+    )
     v_p = np.where(has_l, vp_l, s0.v_p)
     g1_0 = np.where(has_l, g1l, s0.g1)
     i_c = i - load.current(v_p)
@@ -176,8 +184,9 @@ def integrate(p: Params, load: Load, phase: np.ndarray, v_c0: np.ndarray, i0: np
         else:
             ep = emf[k + 1]
         if linear:
-            s = _solve_linear(p.isat, p.mvt, ep, a, z, d0_all[k], d1_all[k], g0, g1, rs_all[k],
-                              lt_all[k])
+            s = _solve_linear(
+                p.isat, p.mvt, ep, a, z, d0_all[k], d1_all[k], g0, g1, rs_all[k], lt_all[k]
+            )
         else:
             s = solve_path(p, load, ep, a, z, r2_all[k] if any_l else r2_all)
         if any_l:

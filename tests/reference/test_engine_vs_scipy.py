@@ -106,8 +106,10 @@ class Ref:
         """Terminal voltage v with v = v_cap + esr * (i_rect - load(v))."""
         if self.esr == 0.0:
             return v_cap
+
         def f(v):
             return v - v_cap - self.esr * (i_rect - self.load_current(v))
+
         lo, hi = v_cap - 1.0 - abs(self.esr * i_rect) * 2, v_cap + 1.0 + abs(self.esr * i_rect) * 2
         return brentq(f, lo, hi, xtol=1e-13, rtol=1e-15)
 
@@ -130,6 +132,7 @@ class Ref:
 
         def f(v):
             return v - v_cap - self.esr * (self.diode_path_current(e, v) - self.load_current(v))
+
         v = brentq(f, v_cap - 5.0 - e * 0, v_cap + 5.0 + abs(e), xtol=1e-13, rtol=1e-15)
         return self.diode_path_current(e, v), v
 
@@ -170,25 +173,40 @@ class Ref:
             if mode is None:
                 evs = []
                 for s in self.paths:
+
                     def on(tt, yy, _mode, s=s):
                         return self.emf(tt, s) - self.node(yy[0], 0.0)
+
                     on.terminal, on.direction = True, 1.0
                     evs.append(on)
                 yy0 = [y[0], y[-3], y[-2], y[-1]]
             else:
                 if self.l_s > 0:
+
                     def off(tt, yy, _mode):
                         return yy[1] - I_OFF
+
                     yy0 = [y[0], 0.0, y[-3], y[-2], y[-1]]
                 else:
+
                     def off(tt, yy, s):
                         return self.path_current_l0(tt, yy[0], s)[0]
+
                     yy0 = [y[0], y[-3], y[-2], y[-1]]
                 off.terminal, off.direction = True, -1.0
                 evs = [off]
-            sol = solve_ivp(self.rhs, (t, self.period), yy0, method=self.method, args=(mode,),
-                            events=evs, rtol=RTOL, atol=1e-12, dense_output=dense,
-                            max_step=self.period / 400)  # events are found between steps
+            sol = solve_ivp(
+                self.rhs,
+                (t, self.period),
+                yy0,
+                method=self.method,
+                args=(mode,),
+                events=evs,
+                rtol=RTOL,
+                atol=1e-12,
+                dense_output=dense,
+                max_step=self.period / 400,
+            )  # events are found between steps
             assert sol.status >= 0, sol.message
             segs.append((mode, sol))
             t, y = sol.t[-1], list(sol.y[:, -1])
@@ -235,9 +253,13 @@ class Ref:
                 cur = [self.state_of(tt, sol.sol(tt), mode)[0] for tt in ts]
                 k = int(np.argmax(cur))
                 lo, hi = ts[max(k - 1, 0)], ts[min(k + 1, len(ts) - 1)]
-                best = minimize_scalar(lambda tt: -self.state_of(tt, sol.sol(tt), mode)[0],
-                                       bounds=(lo, hi), method="bounded",
-                                       options={"xatol": 1e-12})
+
+                def neg_current(tt, sol=sol, mode=mode):
+                    return -self.state_of(tt, sol.sol(tt), mode)[0]
+
+                best = minimize_scalar(
+                    neg_current, bounds=(lo, hi), method="bounded", options={"xatol": 1e-12}
+                )
                 pk = max(pk, cur[k], -best.fun)
         n_paths = len(self.paths)
         i_d_rms = math.sqrt(q_i2 / n_paths / tp)  # each path carries one diode's current
@@ -254,21 +276,75 @@ class Ref:
 
 CASES = {
     # name: reference parameters (one per topology x leakage, small and large ripple, loads)
-    "bridge_L0_small_ripple_current": dict(topology="bridge", v_rms=12.0, freq=50.0, r_s=0.3,
-                                           l_s=0.0, c=10000e-6, esr=0.02, i_load=0.5),
-    "bridge_L1mH_resistor": dict(topology="bridge", v_rms=12.0, freq=50.0, r_s=0.5, l_s=1e-3,
-                                 c=2200e-6, esr=0.05, load="resistor", r_load=15.0),
-    "center_tap_L0_large_ripple": dict(topology="center-tap", v_rms=12.0, freq=60.0, r_s=0.4,
-                                       l_s=0.0, c=1000e-6, esr=0.03, i_load=0.5),
-    "center_tap_L_small_ripple": dict(topology="center-tap", v_rms=9.0, freq=50.0, r_s=0.2,
-                                      l_s=0.5e-3, c=4700e-6, esr=0.02, i_load=0.3),
-    "half_wave_L0_resistor": dict(topology="half-wave", v_rms=12.0, freq=50.0, r_s=1.0,
-                                  l_s=0.0, c=2200e-6, esr=0.0, load="resistor", r_load=100.0),
-    "half_wave_L_large_ripple": dict(topology="half-wave", v_rms=12.0, freq=50.0, r_s=0.5,
-                                     l_s=2e-3, c=1000e-6, esr=0.05, i_load=0.2),
-    "bridge_zener": dict(topology="bridge", v_rms=15.0, freq=50.0, r_s=0.8, l_s=0.3e-3,
-                         c=1000e-6, esr=0.1, load="zener", r_series=47.0, v_z0=12.0, r_z=2.0,
-                         i_out=0.05),
+    "bridge_L0_small_ripple_current": dict(
+        topology="bridge", v_rms=12.0, freq=50.0, r_s=0.3, l_s=0.0, c=10000e-6, esr=0.02, i_load=0.5
+    ),
+    "bridge_L1mH_resistor": dict(
+        topology="bridge",
+        v_rms=12.0,
+        freq=50.0,
+        r_s=0.5,
+        l_s=1e-3,
+        c=2200e-6,
+        esr=0.05,
+        load="resistor",
+        r_load=15.0,
+    ),
+    "center_tap_L0_large_ripple": dict(
+        topology="center-tap",
+        v_rms=12.0,
+        freq=60.0,
+        r_s=0.4,
+        l_s=0.0,
+        c=1000e-6,
+        esr=0.03,
+        i_load=0.5,
+    ),
+    "center_tap_L_small_ripple": dict(
+        topology="center-tap",
+        v_rms=9.0,
+        freq=50.0,
+        r_s=0.2,
+        l_s=0.5e-3,
+        c=4700e-6,
+        esr=0.02,
+        i_load=0.3,
+    ),
+    "half_wave_L0_resistor": dict(
+        topology="half-wave",
+        v_rms=12.0,
+        freq=50.0,
+        r_s=1.0,
+        l_s=0.0,
+        c=2200e-6,
+        esr=0.0,
+        load="resistor",
+        r_load=100.0,
+    ),
+    "half_wave_L_large_ripple": dict(
+        topology="half-wave",
+        v_rms=12.0,
+        freq=50.0,
+        r_s=0.5,
+        l_s=2e-3,
+        c=1000e-6,
+        esr=0.05,
+        i_load=0.2,
+    ),
+    "bridge_zener": dict(
+        topology="bridge",
+        v_rms=15.0,
+        freq=50.0,
+        r_s=0.8,
+        l_s=0.3e-3,
+        c=1000e-6,
+        esr=0.1,
+        load="zener",
+        r_series=47.0,
+        v_z0=12.0,
+        r_z=2.0,
+        i_out=0.05,
+    ),
 }
 
 COMPARED = ("ripple_pp", "i_d_peak", "i_sec_rms", "i_c_rms")
@@ -294,8 +370,16 @@ def test_engine_matches_solve_ivp(name):
 
 def test_switch_on_matches_solve_ivp():
     """First pulse after closing at the crest, empty capacitor: peak and I^2 t."""
-    params = dict(topology="bridge", v_rms=12.0, freq=50.0, r_s=0.4, l_s=0.5e-3, c=4700e-6,
-                  esr=0.03, i_load=0.5)
+    params = dict(
+        topology="bridge",
+        v_rms=12.0,
+        freq=50.0,
+        r_s=0.4,
+        l_s=0.5e-3,
+        c=4700e-6,
+        esr=0.03,
+        i_load=0.5,
+    )
     ref = Ref(**params)
     t0 = 0.25 / ref.freq  # crest of the EMF
 
@@ -309,8 +393,17 @@ def test_switch_on_matches_solve_ivp():
         return y[1]
 
     ended.terminal, ended.direction = True, -1.0
-    sol = solve_ivp(rhs, (t0, t0 + 2 * ref.period), [0.0, 0.0, 0.0], method="Radau",
-                    rtol=RTOL, atol=1e-12, events=ended, dense_output=True, first_step=1e-8)
+    sol = solve_ivp(
+        rhs,
+        (t0, t0 + 2 * ref.period),
+        [0.0, 0.0, 0.0],
+        method="Radau",
+        rtol=RTOL,
+        atol=1e-12,
+        events=ended,
+        dense_output=True,
+        first_step=1e-8,
+    )
     assert sol.status == 1
     ts = np.linspace(sol.t[0], sol.t[-1], 20001)
     peak = sol.sol(ts)[1].max()

@@ -29,8 +29,18 @@ FINE = 4000  # steps per period for the near-ideal circuits
 
 def near_ideal(topology: str, f_r: float) -> Circuit:
     c = I_L / (f_r * VR_DESIGN)  # Sedra & Smith: C = I / (f_r Vr) (from memory)
-    return Circuit(topology=topology, v_rms=V_RMS, freq=F, r_s=1e-4, l_s=0.0, c=c, esr=0.0,
-                   diode_n=0.02, diode_rs=0.0, i_load=I_L)
+    return Circuit(
+        topology=topology,
+        v_rms=V_RMS,
+        freq=F,
+        r_s=1e-4,
+        l_s=0.0,
+        c=c,
+        esr=0.0,
+        diode_n=0.02,
+        diode_rs=0.0,
+        i_load=I_L,
+    )
 
 
 # Full-wave ripple frequency 2f, half-wave f (Sedra & Smith, peak rectifier; from memory).
@@ -93,8 +103,17 @@ def test_energy_balance(topology, load):
         "zener": dict(r_series=22.0, v_z0=10.0, r_z=3.0, i_out=0.1),
         "regulator": dict(i_load=0.6, i_q=0.005, v_dropout_min=7.0),
     }[load]
-    circ = Circuit(topology, v_rms=12.0, freq=50.0, r_s=np.array([0.2, 0.6]),
-                   l_s=np.array([0.0, 1e-3]), c=3300e-6, esr=0.05, load=load, **extra)
+    circ = Circuit(
+        topology,
+        v_rms=12.0,
+        freq=50.0,
+        r_s=np.array([0.2, 0.6]),
+        l_s=np.array([0.0, 1e-3]),
+        c=3300e-6,
+        esr=0.05,
+        load=load,
+        **extra,
+    )
     got = simulate(circ)
     assert got.converged.all()
     if load == "zener":
@@ -111,8 +130,9 @@ def test_large_capacitor_gives_peak_minus_diode_drops():
     n_d, i_s, r_d, r_s, t_c = 1.8, 1e-9, 0.05, 0.2, 25.0
     vt = n_d * 1.380649e-23 * (t_c + 273.15) / 1.602176634e-19
     for topology, m in (("bridge", 2), ("half-wave", 1)):
-        got = simulate(Circuit(topology, v_rms=12.0, freq=50.0, r_s=r_s, l_s=0.0, c=10.0,
-                               esr=0.0, i_load=0.2))
+        got = simulate(
+            Circuit(topology, v_rms=12.0, freq=50.0, r_s=r_s, l_s=0.0, c=10.0, esr=0.0, i_load=0.2)
+        )
         assert got.ripple_pp[0] / got.v_c_mean[0] < 1e-3
         ipk = got.i_d_peak[0]
         drop = r_s * ipk + m * (vt * math.log1p(ipk / i_s) + r_d * ipk)
@@ -121,8 +141,10 @@ def test_large_capacitor_gives_peak_minus_diode_drops():
 
 @pytest.mark.parametrize("topology,f_r", CASES)
 def test_ripple_frequency_from_waveform_spectrum(topology, f_r):
-    got = simulate(Circuit(topology, v_rms=12.0, freq=F, r_s=0.3, l_s=0.0, c=2200e-6,
-                           esr=0.02, i_load=0.5), keep_waveforms=[0])
+    got = simulate(
+        Circuit(topology, v_rms=12.0, freq=F, r_s=0.3, l_s=0.0, c=2200e-6, esr=0.02, i_load=0.5),
+        keep_waveforms=[0],
+    )
     assert got.ripple_freq[0] == f_r
     w = got.waveforms[0]
     n = 4096
@@ -143,8 +165,7 @@ def test_vectorised_equals_per_point():
     i_l = np.array([0.2, 1.0, 0.05])
     vec = simulate(Circuit("center-tap", 9.0, 60.0, r_s, l_s, c, 0.03, i_load=i_l))
     for k in range(3):
-        one = simulate(Circuit("center-tap", 9.0, 60.0, r_s[k], l_s[k], c[k], 0.03,
-                               i_load=i_l[k]))
+        one = simulate(Circuit("center-tap", 9.0, 60.0, r_s[k], l_s[k], c[k], 0.03, i_load=i_l[k]))
         for key, val in one.point(0).items():
             assert vec.point(k)[key] == pytest.approx(val, rel=1e-9, nan_ok=True), key
 
@@ -152,19 +173,31 @@ def test_vectorised_equals_per_point():
 def test_converged_flag_and_nan_for_failures():
     # Point 0 is ordinary; point 1 asks for more current than the source can give at any
     # positive capacitor voltage (12 V, 20 ohm source: under 0.6 A); point 2 is ordinary.
-    circ = Circuit("bridge", 12.0, 50.0, r_s=np.array([0.3, 20.0, 0.3]), l_s=0.0, c=2200e-6,
-                   esr=0.02, i_load=np.array([0.5, 2.0, 0.5]))
+    circ = Circuit(
+        "bridge",
+        12.0,
+        50.0,
+        r_s=np.array([0.3, 20.0, 0.3]),
+        l_s=0.0,
+        c=2200e-6,
+        esr=0.02,
+        i_load=np.array([0.5, 2.0, 0.5]),
+    )
     got = simulate(circ)
     assert got.converged.tolist() == [True, False, True]
     assert got.status[1] == COLLAPSED and STATUS_TEXT[COLLAPSED]
-    assert all(math.isnan(v) for k, v in got.point(1).items()
-               if k not in ("converged", "status", "iterations"))
+    assert all(
+        math.isnan(v)
+        for k, v in got.point(1).items()
+        if k not in ("converged", "status", "iterations")
+    )
     assert np.isfinite(got.ripple_pp[[0, 2]]).all()
 
 
 def test_too_few_periods_is_not_converged():
-    got = simulate(Circuit("bridge", 12.0, 50.0, 0.3, 0.0, 4700e-6, 0.02, i_load=1.0),
-                   max_periods=2)
+    got = simulate(
+        Circuit("bridge", 12.0, 50.0, 0.3, 0.0, 4700e-6, 0.02, i_load=1.0), max_periods=2
+    )
     assert not got.converged[0]
     assert got.status[0] == NOT_CONVERGED
     assert math.isnan(got.i_d_peak[0])
