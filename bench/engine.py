@@ -12,6 +12,7 @@ Run from the repository root: python3 bench/engine.py [--quick]
 from __future__ import annotations
 
 import argparse
+import os
 import resource
 import sys
 import time
@@ -86,6 +87,8 @@ def steps_sweep(names, refs) -> None:
 
 def ten_thousand() -> None:
     print("== 10,000 operating points in one call ==")
+    print("(timed without tracing; peak memory from a second, traced run: tracemalloc slows")
+    print(" numpy's many small allocations down, so its run is not timed)")
     rng = np.random.default_rng(2024)
     n = 10_000
     for topology in ("bridge", "center-tap", "half-wave"):
@@ -99,18 +102,24 @@ def ten_thousand() -> None:
             esr=0.03,
             i_load=rng.uniform(0.05, 1.0, n),
         )
-        tracemalloc.start()
         t0, c0 = time.perf_counter(), time.process_time()
         got = simulate(circ, keep_waveforms=[0, n - 1])
         wall, cpu = time.perf_counter() - t0, time.process_time() - c0
+        tracemalloc.start()
+        simulate(circ, keep_waveforms=[0, n - 1])
         _, peak = tracemalloc.get_traced_memory()
         tracemalloc.stop()
         rss = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024  # KiB -> MiB on Linux
         print(
-            f"{topology:10s}: {wall:5.2f} s wall ({cpu:5.2f} s CPU), peak traced memory "
-            f"{peak / 2**20:6.1f} MiB, process peak RSS {rss:6.1f} MiB, "
+            f"{topology:10s}: {wall:5.2f} s wall ({cpu:5.2f} s CPU, all threads), "
+            f"peak traced memory {peak / 2**20:6.1f} MiB, process peak RSS {rss:6.1f} MiB, "
             f"converged {int(got.converged.sum())}/{n}, mean passes {got.iterations.mean():.1f}"
         )
+    load = os.getloadavg()[0]
+    print(
+        f"cores {os.cpu_count()}, 1-minute load average at the end {load:.1f} (other work "
+        f"on the machine inflates wall times)"
+    )
 
 
 def main() -> None:
