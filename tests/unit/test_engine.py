@@ -71,11 +71,13 @@ def test_conduction_angle_and_peak_current(ideal_results, topology, f_r):
     got = ideal_results[topology]
     vpk, vr = got.v_c_max[0], got.ripple_pp[0]
     c = I_L / (f_r * VR_DESIGN)
-    # Sedra & Smith: conduction angle theta = arccos(1 - Vr/Vpk) (from memory). The engine
-    # counts conduction while the current exceeds 1 % of its peak, and the real diode keeps a
-    # small current after the crest (r_s C lag): allow 10 %.
+    # Sedra & Smith: conduction angle theta = arccos(1 - Vr/Vpk) up to the crest (from memory).
+    # An ideal diode also conducts a little past the crest, until C w Vpk sin(phi) = I_L, i.e.
+    # for about I_L / (C w Vpk) rad [derived]. The engine counts conduction while the current
+    # exceeds 1 % of its peak, and the r_s C lag stretches the tail: allow 7 %.
     theta = math.acos(1 - vr / vpk)
-    assert got.conduction_angle[0] == pytest.approx(theta, rel=0.10)
+    tail = I_L / (c * 2 * math.pi * F * vpk)
+    assert got.conduction_angle[0] == pytest.approx(theta + tail, rel=0.07)
     # Sedra & Smith derivation: the diode current peaks at turn-on, where the capacitor starts
     # following the sine, i = I_L + C w Vpk sin(theta) (from memory). The r_s C lag keeps the
     # current from jumping to that value at once: allow 5 % below, 1 % above.
