@@ -46,8 +46,9 @@ def switch_on(circuit: Circuit, *, periods: float = 1.0, steps_per_period: int =
     load = build_load(p)
     phase = _phase_grid(periods, steps_per_period)[:, None] + np.zeros(p.n)
     zero = np.zeros(p.n)
-    r = integrate(p, load, phase, zero, zero, store=True, sensitivity=False)
+    r = integrate(p, load, phase, zero, zero, store=True, sensitivity=False, stop_after_pulse=True)
     i = r.i
+    phase = phase[: i.shape[0]]
     t = (phase - phase[0]) / p.omega
     started = np.maximum.accumulate(i > 0, axis=0)
     ended = started & (i <= 0)

@@ -104,6 +104,7 @@ def integrate(
     i0: np.ndarray,
     store: bool = True,
     sensitivity: bool = True,
+    stop_after_pulse: bool = False,
 ) -> PassResult:
     """Integrate one pass over the per-point phase grid ``phase`` (shape (N+1, n), radians).
 
@@ -173,6 +174,7 @@ def integrate(
         d0_all = -z_all * g0 * d1_all
         rs_all = np.maximum(r2_all + d1_all * z_all, _R_MIN)
         lt_all = np.log(rs_all * (p.isat / p.mvt))
+    started = i > 0
     for k in range(nsteps):
         b = b_all[k]
         bh = bh_all[k]
@@ -210,10 +212,16 @@ def integrate(
         i, i_c, v_c = s.i, s.i_c, vc_new
         if store:
             out_i[k + 1], out_v[k + 1] = i, s.v_p
+        if stop_after_pulse:
+            # Stop once every point has had its first pulse and the current is off again.
+            started |= i > 0
+            if k % 32 == 31 and (started & (i <= 0)).all():
+                nsteps = k + 1
+                break
 
     res = PassResult(v_c, d_vc, i_end=i)
     if store:
-        res.i, res.v_p = out_i, out_v
+        res.i, res.v_p = out_i[: nsteps + 1], out_v[: nsteps + 1]
     return res
 
 
