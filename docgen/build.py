@@ -45,14 +45,16 @@ def schematic_for(design: Design) -> str:
         p = parts[ref]
         return f"{p.value_text}" + (f" ({p.part_id})" if p.part_id else "")
 
+    topology = design.requirements.rectifier.topology
+    rect = "BR1" if topology == "bridge" else "D1"
     drawing = SchematicDrawing(
-        topology="bridge",
+        topology=topology,
         mains_text=f"{mains.nominal:g} V {mains.frequency:g} Hz",
         transformer=f"T1 {label('T1')}",
-        rectifier=f"BR1 {label('BR1')}",
+        rectifier=f"{rect} {label(rect)}",
         outputs=(OutputDrawing(
             name=out.name, regulator="zener",
-            labels={"C1": label("C1"), "R1": label("R1"), "D1": label("D1")},
+            labels={"C1": label("C1"), "R1": label("R1"), "DZ1": label("DZ1")},
             v_out_text=f"{out.voltage:g} V, {out.load_max * 1e3:g} mA"),),
     )
     return schematic_svg(drawing)

@@ -116,9 +116,9 @@ def sample_points(L: Ledger, n: int, seed: int, t_min: float, t_max: float) -> P
                     line_name=["sample"] * n, load_name=["sample"] * n)
 
 
-def _circuit(L: Ledger, pts: PointSet) -> Circuit:
+def _circuit(L: Ledger, pts: PointSet, topology: str) -> Circuit:
     return Circuit(
-        topology="bridge",
+        topology=topology,
         v_rms=L["transformer.v_nl"] * pts.line,
         freq=L["mains.freq"],
         r_s=L["transformer.r_w"],
@@ -142,7 +142,7 @@ def _concat(a: PointSet, b: PointSet | None) -> PointSet:
                     load_name=a.load_name + b.load_name)
 
 
-def analyse(L: Ledger, samples: int, seed: int, t_min: float, t_max: float, *,
+def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_max: float, *,
             surge: bool = True) -> CornerResult:
     corners = corner_points(L)
     mc = sample_points(L, samples, seed, t_min, t_max) if samples > 0 else None
@@ -153,7 +153,7 @@ def analyse(L: Ledger, samples: int, seed: int, t_min: float, t_max: float, *,
                    and "R -" in n)
     trough = next(k for k, n in enumerate(corners.name)
                   if n.startswith("low line, full load, C -") and "V_Z high" in n and "R +" in n)
-    ss = simulate(_circuit(L, pts), keep_waveforms=(nominal, trough))
+    ss = simulate(_circuit(L, pts, topology), keep_waveforms=(nominal, trough))
     metrics: dict[str, Any] = {name: getattr(ss, name) for name in (
         "v_c_max", "v_c_min", "v_c_mean", "ripple_pp", "conduction_angle", "i_d_peak",
         "i_d_avg", "i_d_rms", "i_sec_rms", "va_sec", "i_c_rms", "p_source", "p_diodes",
@@ -168,7 +168,8 @@ def analyse(L: Ledger, samples: int, seed: int, t_min: float, t_max: float, *,
         one = PointSet(*(getattr(corners, f)[[k]] for f in ("line", "load", "c", "v_z", "r")),
                        name=[corners.name[k]], line_name=[corners.line_name[k]],
                        load_name=[corners.load_name[k]])
-        so = switch_on(_circuit(L, one), periods=SURGE_PERIODS, steps_per_period=SURGE_STEPS)
+        so = switch_on(_circuit(L, one, topology), periods=SURGE_PERIODS,
+                       steps_per_period=SURGE_STEPS)
         surge_peak, surge_i2t, surge_ok = (float(so.i_peak[0]), float(so.i2t[0]),
                                            bool(so.converged[0]))
     return CornerResult(

@@ -173,7 +173,7 @@ RELATIVE_DEV = _eq("deviation.relative", "Relative deviation from nominal", r"\f
                    {"a": "V", "n": r"V_{nom}"}, DEF)
 
 # ---------------------------------------------------------------- rectifier
-PIV_BRIDGE = _eq("bridge.piv", "Peak inverse voltage per bridge diode", r"\sqrt{2} \cdot $v",
+PIV_BRIDGE = _eq("rect.piv", "Peak inverse voltage per bridge diode", r"\sqrt{2} \cdot $v",
                  {"v": r"V_{sec,NL,hi}"},
                  SEDRA_SMITH + ": each blocking bridge diode sees the winding peak")
 HALF = _eq("bridge.avg_current", "Average current per bridge diode", r"\frac{$i}{2}",
@@ -276,3 +276,41 @@ CAP_LIFE = _eq(
 )
 EFFICIENCY = _eq("power.efficiency", "Efficiency", r"\frac{$o}{$i}",
                  {"o": r"P_{out}", "i": r"P_{in}"}, DEF)
+
+# ---------------------------------------------------------------- topologies
+RIPPLE_FREQ_HW = _eq("rectifier.ripple_frequency_hw", "Ripple frequency, half-wave", r"$f",
+                     {"f": "f"}, "half-wave rectification, any circuits text (" + SEDRA_SMITH + ")")
+SEC_PEAK_NEEDED_N = _eq(
+    "transformer.path_peak_needed", "Winding peak needed at low line, full load",
+    r"$v + $r + $n \cdot $d",
+    {"v": r"V_{valley}", "r": r"V_r", "n": r"n_d", "d": r"V_F"},
+    "n_d diodes conduct in series: 2 in a bridge, 1 in center-tap and half-wave (common practice)",
+)
+CT_WHOLE = _eq("transformer.ct_whole", "Whole center-tapped winding", r"2 \cdot $v",
+               {"v": r"V_{half}"}, "center tap at the middle of the winding")
+CT_HALF = _eq("transformer.ct_half", "Half of a center-tapped winding", r"\frac{$v}{2}",
+              {"v": r"V_{sec}"}, "center tap at the middle of the winding")
+CAP_PEAK_N = _eq(
+    "rectifier.cap_peak_n", "Capacitor peak voltage",
+    r"\sqrt{2} \cdot $v - $n \cdot $d", {"v": r"V_{path}", "n": r"n_d", "d": r"V_F"},
+    SEDRA_SMITH + "; the conducting path loses n_d diode drops",
+)
+PIV_DOUBLE = _eq(
+    "rectifier.piv_double", "Peak inverse voltage per diode (center-tap or half-wave)",
+    r"2 \sqrt{2} \cdot $v", {"v": r"V_{path,NL,hi}"},
+    SEDRA_SMITH + ": the blocking diode sees twice the path peak (center-tap: the whole winding; "
+    "half-wave with a reservoir: the winding peak plus the capacitor)",
+)
+PEAK_CURRENT_HW = _eq(
+    "rectifier.peak_current_hw", "Repetitive peak diode current, half-wave (ideal source)",
+    r"$i \cdot \left(1 + 2\pi\sqrt{\frac{2 \cdot $v}{$r}}\right)",
+    {"i": r"I_{DC}", "v": r"V_{C,pk}", "r": r"V_r"},
+    SEDRA_SMITH + ": half-wave peak rectifier; an upper bound (no source resistance)",
+)
+WINDING_R_PATH = _eq(
+    "transformer.winding_resistance_path", "Winding resistance of one conducting path",
+    r"\frac{$g \cdot $p \cdot $v}{$s}",
+    {"g": r"\mathrm{Reg}", "p": r"V_{path}", "v": r"V_{sec}", "s": "S"},
+    "common practice: the regulation is taken as the resistive drop at rated current, "
+    "(V_NL - V_FL) = I_rated R_w, per conducting winding",
+)

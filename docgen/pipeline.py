@@ -31,6 +31,13 @@ from .trace import Assumption, Ledger, TraceError
 from .units import format_quantity as fq
 
 MAX_PASSES = 6
+RECT_TEXT = {
+    "bridge": "bridge rectifier, V_RRM at least {v}, I_F(AV) at least {i}, I_FSM at least {s}",
+    "center-tap": "2 rectifier diodes, V_RRM at least {v}, I_F(AV) together at least {i} "
+                  "(half each), I_FSM at least {s}",
+    "half-wave": "rectifier diode, V_RRM at least {v}, I_F(AV) at least {i}, I_FSM at least {s}",
+}
+RMS_FACTORS = {"bridge": 1.8, "center-tap": 1.2, "half-wave": 3.6}
 LIFE_CAP = 15 * 8766 * 3600.0  # s; 15 years of 8766 h
 
 STAGES = (
@@ -93,9 +100,9 @@ ENGINE_CHECKS = (
     EngineCheck("check.headroom", "Drop across R at the trough >= headroom", "headroom", "min",
                 "output.headroom", r"V_{R,min}", "V", "R1", "output[0].headroom"),
     EngineCheck("check.zener_current", "Zener current at the trough >= I_Z,min", "i_z_min", "min",
-                "zener.i_min", r"I_{Z,min}", "A", "D1", "output[0].zener.knee_current"),
+                "zener.i_min", r"I_{Z,min}", "A", "DZ1", "output[0].zener.knee_current"),
     EngineCheck("check.zener_power", "Zener dissipation <= derated rating", "p_zener", "max",
-                "zener.p_allowed", r"P_Z", "W", "D1", "margins.zener_power_derating"),
+                "zener.p_allowed", r"P_Z", "W", "DZ1", "margins.zener_power_derating"),
     EngineCheck("check.resistor_power", "Series-resistor dissipation <= derated rating",
                 "p_r_series", "max", "zener.r_p_allowed", r"P_R", "W", "R1",
                 "margins.resistor_power_derating"),
@@ -109,11 +116,16 @@ ENGINE_CHECKS = (
                 "i_sec_rms", "max", "transformer.i_rated", r"I_{sec,rms}", "A", "T1", "",
                 nominal_line_only=True),
     EngineCheck("check.bridge_current", "Bridge output current <= derated I_F(AV)", "i_dc",
-                "max", "bridge.i_allowed", r"I_{DC}", "A", "BR1",
+                "max", "rect.i_allowed", r"I_{DC}", "A", "RECT",
                 "margins.diode_current_derating"),
     EngineCheck("check.cap_ripple_current", "Capacitor ripple current <= rating", "i_c_rms",
                 "max", "reservoir.i_ripple_rating", r"I_{C,rms}", "A", "C1", ""),
 )
+
+
+def _ref(spec: Requirements, ref: str) -> str:
+    """Designators that depend on the topology: RECT is BR1 for a bridge, D1 otherwise."""
+    return rectifier.rectifier_ref(spec.rectifier.topology) if ref == "RECT" else ref
 
 
 def _derived_metrics(cr: CornerResult) -> None:
@@ -153,10 +165,15 @@ def _project_root(folder: Path) -> Path:
 
 def _record_margins(spec: Requirements, L: Ledger) -> None:
     m = spec.margins
-    L.given("margins.secondary_rms_factor", r"k_{rms}", m.secondary_rms_factor, "",
-            "Secondary RMS to DC current ratio (capacitor-input bridge)",
-            defaulted="secondary_rms_factor" not in m.model_fields_set,
-            source="common practice: makers' tables give 1.6-1.8 for a bridge")
+    topology = spec.rectifier.topology
+    if m.secondary_rms_factor is not None:
+        L.given("margins.secondary_rms_factor", r"k_{rms}", m.secondary_rms_factor, "",
+                "Secondary RMS to DC current ratio")
+    else:
+        L.given("margins.secondary_rms_factor", r"k_{rms}", RMS_FACTORS[topology], "",
+                f"Secondary RMS to DC current ratio ({topology}, capacitor input)",
+                defaulted=True, source="common practice: upper end of makers' selection "
+                "tables (bridge 1.6-1.8, center-tap 1.0-1.2 per half, half-wave 2.6-3.6)")
     L.given("margins.warn_band", r"w", m.warn_band, "%", "Warning band for checks",
             defaulted="warn_band" not in m.model_fields_set)
 
@@ -254,7 +271,7 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
         changed |= ctx.floors.raise_to(
             "resistor_power", p / spec.margins.resistor_power_derating / (1 - band),
             f"the engine found {fq(p, 'W')} in the series resistor at {where}")
-    if not spec.rectifier.part and short("check.bridge_current", "bridge.i_allowed", "max"):
+    if not spec.rectifier.part and short("check.bridge_current", "rect.i_allowed", "max"):
         i, where = worst("check.bridge_current")
         changed |= ctx.floors.raise_to(
             "bridge_current", i / spec.margins.diode_current_derating / (1 - band),
@@ -281,7 +298,7 @@ def _engine_values(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Chec
                    f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)",
                    MODEL_INPUTS, cr.corners.name[k])
         checks.append(make_check(L, chk.id, chk.title, vid, chk.limit_id, chk.sense,
-                                 cr.corners.name[k], w, ref=chk.ref,
+                                 cr.corners.name[k], w, ref=_ref(spec, chk.ref),
                                  requirement=chk.requirement))
     # A corner the engine could not solve is a failing check of its own, never a number.
     bad = [cr.corners.name[k] for k in range(cr.n_corners) if not cr.converged[k]]
@@ -299,8 +316,9 @@ def _engine_values(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Chec
         L.measured("engine.surge_peak", eq.ENGINE_SWITCH_ON, r"I_{surge}", cr.surge_peak, "A",
                    "Switch-on surge peak (engine)", MODEL_INPUTS, "high line, C +tol")
         checks.append(make_check(L, "check.bridge_surge", "Switch-on surge <= I_FSM",
-                                 "engine.surge_peak", "bridge.i_fsm", "max",
-                                 "switch-on at the crest, high line, C +tol", w, ref="BR1"))
+                                 "engine.surge_peak", "rect.i_fsm", "max",
+                                 "switch-on at the crest, high line, C +tol", w,
+                                 ref=_ref(spec, "RECT")))
     # Nominal-corner figures for the summary: efficiency, VA, ripple current.
     k = cr.nominal_index
     where = cr.corners.name[k]
@@ -328,8 +346,8 @@ def _hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]
         make_check(L, "check.cap_voltage", "Capacitor voltage <= derated rating",
                    "reservoir.v_max", "reservoir.v_allowed", "max", "high line, no load", w,
                    ref="C1", requirement="margins.capacitor_voltage_derating"),
-        make_check(L, "check.bridge_piv", "Diode reverse voltage <= derated V_RRM", "bridge.piv",
-                   "bridge.v_allowed", "max", "high line, no load", w, ref="BR1",
+        make_check(L, "check.bridge_piv", "Diode reverse voltage <= derated V_RRM", "rect.piv",
+                   "rect.v_allowed", "max", "high line, no load", w, ref=_ref(spec, "RECT"),
                    requirement="margins.diode_voltage_derating"),
     ]
     if "reservoir.life_rated" in L and spec.environment.required_life is not None:
@@ -422,9 +440,10 @@ def _parts(ctx: SizingContext, L: Ledger) -> list[PartChoice]:
              ) -> PartChoice:
         pick = ctx.picks.get(ref)
         part = pick.part if pick else None
+        qty = f"{pick.quantity} x " if pick and pick.quantity > 1 else ""
         return PartChoice(
             ref, kind, value_text,
-            description=(part.description or part.id) if part is not None else generic,
+            description=(qty + (part.description or part.id)) if part is not None else generic,
             part_id=part.id if part is not None else "",
             origin=pick.origin if pick else "sized",
             reason=pick.reason if pick else "",
@@ -435,10 +454,10 @@ def _parts(ctx: SizingContext, L: Ledger) -> list[PartChoice]:
              f"mains transformer, secondary {v('transformer.v_rated')} RMS at rated load, "
              f"at least {v('transformer.va')}, regulation at most {v('transformer.regulation')}",
              ("transformer.v_rated", "transformer.va", "transformer.regulation")),
-        line("BR1", "bridge", f"{v('bridge.v_rrm')} {v('bridge.i_f_rating')}",
-             f"bridge rectifier, V_RRM at least {v('bridge.v_rrm')}, I_F(AV) at least "
-             f"{v('bridge.i_f_rating')}, I_FSM at least {v('bridge.i_fsm')}",
-             ("bridge.v_rrm", "bridge.i_f_rating", "bridge.i_fsm")),
+        line(_ref(ctx.spec, "RECT"), "rectifier", f"{v('rect.v_rrm')} {v('rect.i_f_rating')}",
+             RECT_TEXT[ctx.spec.rectifier.topology].format(
+                 v=v('rect.v_rrm'), i=v('rect.i_f_rating'), s=v('rect.i_fsm')),
+             ("rect.v_rrm", "rect.i_f_rating", "rect.i_fsm")),
         line("C1", "capacitor", f"{v('reservoir.c')} {v('reservoir.v_rating')}",
              f"aluminium electrolytic capacitor, {v('reservoir.c')} (tolerance "
              f"{v('reservoir.tol')}), at least {v('reservoir.v_rating')}"
@@ -448,7 +467,7 @@ def _parts(ctx: SizingContext, L: Ledger) -> list[PartChoice]:
         line("R1", "resistor", f"{v('zener.r')} {v('zener.r_p_rating')}",
              f"resistor {v('zener.r')} +/-{v('zener.r_tol')}, at least {v('zener.r_p_rating')}",
              ("zener.r", "zener.r_p_rating")),
-        line("D1", "zener", f"{v('zener.v_nom')} {v('zener.p_rating')}",
+        line("DZ1", "zener", f"{v('zener.v_nom')} {v('zener.p_rating')}",
              f"zener diode {v('zener.v_nom')} +/-{v('zener.tol')}, at least "
              f"{v('zener.p_rating')}", ("zener.v_nom", "zener.p_rating")),
     ]
@@ -479,13 +498,13 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     for _ in range(MAX_PASSES):
         ctx.picks.clear()
         L = _guarded(lambda: _size(ctx))
-        cr = _guarded(lambda: analyse(L, 0, spec.analysis.seed, env.ambient_min,
+        cr = _guarded(lambda: analyse(L, spec.rectifier.topology, 0, spec.analysis.seed, env.ambient_min,
                                       env.ambient_max, surge=False))
         _derived_metrics(cr)
         if not _bumps(ctx, L, cr):
             break
     # Final run with the Monte Carlo samples and the switch-on surge on the settled design.
-    cr = _guarded(lambda: analyse(L, n_samples, spec.analysis.seed, env.ambient_min,
+    cr = _guarded(lambda: analyse(L, spec.rectifier.topology, n_samples, spec.analysis.seed, env.ambient_min,
                                   env.ambient_max))
     _derived_metrics(cr)
     checks = _engine_values(ctx, L, cr)

@@ -11,6 +11,22 @@ DEMO = ROOT / "specs" / "hydroponic-sensor-hub.toml"
 DATA = ROOT / "tests" / "data"
 
 
+def standalone(text: str) -> str:
+    """A spec's text without its [parts] section, for copies written outside the repository
+    (the library path is relative to the spec and would not resolve there)."""
+    out, skip = [], False
+    for line in text.splitlines():
+        stripped = line.strip()
+        if stripped.startswith("["):
+            skip = stripped == "[parts]"
+        if not skip:
+            out.append(line)
+    return "\n".join(out) + "\n"
+
+
+DEMO_STANDALONE = standalone(DEMO.read_text())
+
+
 @pytest.fixture(scope="session")
 def demo_build(tmp_path_factory):
     """Build the demo spec once (HTML, PDF, results.json) for the end-to-end tests."""

@@ -128,10 +128,10 @@ class Transformer(Section):
 
 
 class Rectifier(Section):
-    topology: Literal["bridge"] = Field(
+    topology: Literal["bridge", "center-tap", "half-wave"] = Field(
         default="bridge",
-        description="Rectifier topology. This version sizes the bridge; center-tap and "
-        "half-wave are planned.",
+        description="Rectifier topology: bridge, center-tap (full-wave from a center-tapped "
+        "winding; the transformer secondary is then the whole winding) or half-wave.",
     )
     diode_drop: Voltage = q(
         1.0, "V", "Forward drop of one diode at the charging-current peaks.",
@@ -265,10 +265,11 @@ class Margins(Section):
         0.50, "%", "Average diode current as a fraction of I_F(AV) (rating >= 2 x I_DC covers "
         "the turn-on surge).", "common practice",
     )
-    secondary_rms_factor: PositiveFraction = q(
-        1.8, "", "Secondary RMS current over DC current of a capacitor-input bridge "
-        "(used until the waveform engine replaces it).",
-        "common practice: upper end of makers' tables, 1.6-1.8",
+    secondary_rms_factor: PositiveFraction | None = q(
+        None, "", "Secondary RMS current (per conducting winding) over DC current, for the "
+        "first VA estimate before the waveform engine verifies it; by topology when absent: "
+        "bridge 1.8, center-tap 1.2 per half, half-wave 3.6.",
+        "common practice: upper end of makers' selection tables",
     )
     warn_band: Fraction = q(
         0.05, "%", "A check within this fraction of its limit is reported as a warning.",

@@ -54,6 +54,7 @@ class Pick:
     part: Any = None  # library part model, when there is one
     reason: str = ""
     generic: str = ""
+    quantity: int = 1
 
 
 @dataclass

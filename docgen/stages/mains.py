@@ -30,5 +30,9 @@ def size_mains(ctx: SizingContext, L: Ledger) -> None:
            {"v": "mains.v_nom", "t": "mains.tol_high"}, lambda v, t: v * (1 + t))
     L.calc("mains.v_pk_high", eq.SINE_PEAK, r"V_{pk,hi}", "V", "High-line peak voltage",
            {"v": "mains.v_high"}, lambda v: math.sqrt(2) * v)
-    L.calc("mains.ripple_freq", eq.RIPPLE_FREQ_FW, r"f_r", "Hz", "Ripple frequency (full-wave)",
-           {"f": "mains.freq"}, lambda f: 2 * f)
+    if ctx.spec.rectifier.topology == "half-wave":
+        L.calc("mains.ripple_freq", eq.RIPPLE_FREQ_HW, r"f_r", "Hz",
+               "Ripple frequency (half-wave)", {"f": "mains.freq"}, lambda f: f)
+    else:
+        L.calc("mains.ripple_freq", eq.RIPPLE_FREQ_FW, r"f_r", "Hz",
+               "Ripple frequency (full-wave)", {"f": "mains.freq"}, lambda f: 2 * f)

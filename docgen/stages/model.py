@@ -23,10 +23,11 @@ def model_circuit(ctx: SizingContext, L: Ledger) -> None:
         L.given("transformer.r_w", r"R_w", t.winding_resistance, "ohm",
                 "Secondary-referred winding resistance (from the file)")
     else:
-        L.calc("transformer.r_w", eq.WINDING_R, r"R_w", "ohm",
-               "Secondary-referred winding resistance (estimate)",
-               {"g": "transformer.regulation", "v": "transformer.v_rated", "s": "transformer.va"},
-               lambda g, v, s: g * v * v / s)
+        L.calc("transformer.r_w", eq.WINDING_R_PATH, r"R_w", "ohm",
+               "Secondary-referred resistance of the conducting winding (estimate)",
+               {"g": "transformer.regulation", "p": "transformer.v_path",
+                "v": "transformer.v_rated", "s": "transformer.va"},
+               lambda g, p, v, s: g * p * v / s)
     if t.leakage_inductance is not None:
         L.given("transformer.l_s", r"L_s", t.leakage_inductance, "H",
                 "Leakage inductance (from the file)")

@@ -19,7 +19,7 @@ def _zener_part(ctx: SizingContext, L: Ledger, vz: float):
     z = spec.output[0].zener
     if z.part:
         part = ctx.fixed_part("zener", z.part, "output[0].zener.part")
-        ctx.picks["D1"] = Pick("D1", "zener", "fixed", part, f"{part.id} named in the file")
+        ctx.picks["DZ1"] = Pick("DZ1", "zener", "fixed", part, f"{part.id} named in the file")
         return part
     if ctx.library is None:
         return None
@@ -31,7 +31,7 @@ def _zener_part(ctx: SizingContext, L: Ledger, vz: float):
                        ambient_c=spec.environment.ambient_max,
                        power_derating=spec.margins.zener_power_derating)
     part = require(sel, f"{vz:g} V zener diode")
-    ctx.picks["D1"] = Pick("D1", "zener", "library", part, sel.reason, sel.generic)
+    ctx.picks["DZ1"] = Pick("DZ1", "zener", "library", part, sel.reason, sel.generic)
     return part
 
 

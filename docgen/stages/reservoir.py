@@ -25,12 +25,14 @@ def size_reservoir(ctx: SizingContext, L: Ledger) -> None:
     spec = ctx.spec
     r = spec.reservoir
     m = spec.margins
-    L.calc("reservoir.v_pk_low", eq.CAP_PEAK_LOW, r"V_{C,pk,lo}", "V",
+    L.calc("reservoir.v_pk_low", eq.CAP_PEAK_N, r"V_{C,pk,lo}", "V",
            "Capacitor peak at low line, full load",
-           {"v": "transformer.v_low_fl", "d": "rect.v_f"}, lambda v, d: math.sqrt(2) * v - 2 * d)
-    L.calc("reservoir.v_pk_high", eq.CAP_PEAK_LOW, r"V_{C,pk,hi}", "V",
+           {"v": "transformer.v_low_fl", "n": "rect.n_d", "d": "rect.v_f"},
+           lambda v, n, d: math.sqrt(2) * v - n * d)
+    L.calc("reservoir.v_pk_high", eq.CAP_PEAK_N, r"V_{C,pk,hi}", "V",
            "Capacitor peak at high line, transformer at rated load",
-           {"v": "transformer.v_high_fl", "d": "rect.v_f"}, lambda v, d: math.sqrt(2) * v - 2 * d)
+           {"v": "transformer.v_high_fl", "n": "rect.n_d", "d": "rect.v_f"},
+           lambda v, n, d: math.sqrt(2) * v - n * d)
     L.calc("reservoir.v_max", eq.SINE_PEAK, r"V_{C,max}", "V",
            "Capacitor peak at high line, no load (no diode drop: conservative)",
            {"v": "transformer.v_high_nl"}, lambda v: math.sqrt(2) * v)

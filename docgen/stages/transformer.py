@@ -44,17 +44,30 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
            "Ripple allowed at the regulator input",
            {"a": "reservoir.ripple_by_fraction", "b": "regulator.ripple_in_allowed"},
            lambda a, b: min(a, b))
-    L.calc("transformer.v_pk_needed", eq.SEC_PEAK_NEEDED, r"V_{sec,pk,lo}", "V",
-           "Secondary peak needed at low line, full load",
-           {"v": "regulator.v_in_min_needed", "r": "reservoir.ripple_allowed", "d": "rect.v_f"},
-           lambda v, r, d: v + r + 2 * d)
-    L.calc("transformer.v_rms_low_needed", eq.RMS_FROM_PEAK, r"V_{sec,lo}", "V",
-           "Secondary RMS needed at low line, full load",
+    topology = spec.rectifier.topology
+    L.given("rect.n_d", r"n_d", 2.0 if topology == "bridge" else 1.0, "",
+            "Diodes conducting in series", source=f"{topology} rectifier")
+    L.calc("transformer.v_pk_needed", eq.SEC_PEAK_NEEDED_N, r"V_{path,pk,lo}", "V",
+           "Winding peak needed at low line, full load",
+           {"v": "regulator.v_in_min_needed", "r": "reservoir.ripple_allowed", "n": "rect.n_d",
+            "d": "rect.v_f"},
+           lambda v, r, n, d: v + r + n * d)
+    L.calc("transformer.v_rms_low_needed", eq.RMS_FROM_PEAK, r"V_{path,lo}", "V",
+           "Winding RMS needed at low line, full load",
            {"v": "transformer.v_pk_needed"}, lambda v: v / math.sqrt(2))
-    L.calc("transformer.v_rated_calc", eq.RATED_FROM_LOW_LINE, r"V_{sec,calc}", "V",
-           "Rated secondary needed (nominal mains, rated load)",
-           {"v": "transformer.v_rms_low_needed", "t": "mains.tol_low"},
-           lambda v, t: v / (1 - t))
+    rated_calc = "transformer.v_rated_calc"
+    if topology == "center-tap":
+        L.calc("transformer.v_half_calc", eq.RATED_FROM_LOW_LINE, r"V_{half,calc}", "V",
+               "Rated half-winding needed (nominal mains, rated load)",
+               {"v": "transformer.v_rms_low_needed", "t": "mains.tol_low"},
+               lambda v, t: v / (1 - t))
+        L.calc(rated_calc, eq.CT_WHOLE, r"V_{sec,calc}", "V",
+               "Rated whole winding needed", {"v": "transformer.v_half_calc"}, lambda v: 2 * v)
+    else:
+        L.calc(rated_calc, eq.RATED_FROM_LOW_LINE, r"V_{sec,calc}", "V",
+               "Rated secondary needed (nominal mains, rated load)",
+               {"v": "transformer.v_rms_low_needed", "t": "mains.tol_low"},
+               lambda v, t: v / (1 - t))
     floor_v = ctx.floor(L, "secondary", "transformer.v_floor", r"V_{sec,floor}", "V",
                         "Secondary voltage floor")
     if floor_v:
@@ -93,17 +106,26 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
     L.calc("transformer.i_rated", eq.RATED_CURRENT, r"I_{sec,rated}", "A",
            "Rated secondary current", {"s": "transformer.va", "v": "transformer.v_rated"},
            lambda s, v: s / v)
-    L.calc("transformer.v_nl", eq.NO_LOAD, r"V_{sec,NL}", "V", "No-load secondary (nominal mains)",
-           {"v": "transformer.v_rated", "g": "transformer.regulation"}, lambda v, g: v * (1 + g))
-    L.calc("transformer.v_low_fl", eq.LINE_LOW, r"V_{sec,lo}", "V",
-           "Secondary at low line, full load", {"v": "transformer.v_rated", "t": "mains.tol_low"},
-           lambda v, t: v * (1 - t))
-    L.calc("transformer.v_high_fl", eq.LINE_HIGH, r"V_{sec,hi}", "V",
-           "Secondary at high line, rated load", {"v": "transformer.v_rated", "t": "mains.tol_high"},
-           lambda v, t: v * (1 + t))
-    L.calc("transformer.v_high_nl", eq.LINE_HIGH, r"V_{sec,NL,hi}", "V",
-           "Secondary at high line, no load", {"v": "transformer.v_nl", "t": "mains.tol_high"},
-           lambda v, t: v * (1 + t))
+    if topology == "center-tap":
+        L.calc("transformer.v_path", eq.CT_HALF, r"V_{path}", "V",
+               "Rated voltage of each half winding", {"v": "transformer.v_rated"},
+               lambda v: v / 2)
+    else:
+        L.calc("transformer.v_path", eq.IDENT, r"V_{path}", "V",
+               "Rated voltage of the conducting winding", {"x": "transformer.v_rated"},
+               lambda x: x)
+    L.calc("transformer.v_nl", eq.NO_LOAD, r"V_{path,NL}", "V",
+           "No-load winding voltage (nominal mains)",
+           {"v": "transformer.v_path", "g": "transformer.regulation"}, lambda v, g: v * (1 + g))
+    L.calc("transformer.v_low_fl", eq.LINE_LOW, r"V_{path,lo}", "V",
+           "Winding voltage at low line, full load",
+           {"v": "transformer.v_path", "t": "mains.tol_low"}, lambda v, t: v * (1 - t))
+    L.calc("transformer.v_high_fl", eq.LINE_HIGH, r"V_{path,hi}", "V",
+           "Winding voltage at high line, rated load",
+           {"v": "transformer.v_path", "t": "mains.tol_high"}, lambda v, t: v * (1 + t))
+    L.calc("transformer.v_high_nl", eq.LINE_HIGH, r"V_{path,NL,hi}", "V",
+           "Winding voltage at high line, no load",
+           {"v": "transformer.v_nl", "t": "mains.tol_high"}, lambda v, t: v * (1 + t))
 
 
 def _from_part(L: Ledger, part) -> None:
@@ -139,17 +161,34 @@ def _size_rating(ctx: SizingContext, L: Ledger) -> None:
         need_v = L["transformer.v_rated_needed"]
         # The lowest secondary at or above the need wins before price: every extra volt is
         # dissipated in the regulator (common practice).
-        steps = sorted(p.secondary_voltage for p in ctx.library.transformers
-                       if p.secondary_voltage >= need_v * (1 - 1e-9))
-        ceiling = min(steps[0] * (1 + 1e-6), need_v * MAX_SECONDARY_EXCESS) if steps else None
+        tapped = ctx.spec.rectifier.topology == "center-tap"
+        # the selector compares half windings for a center-tapped need
+        need_sel = need_v / 2 if tapped else need_v
+        steps = sorted((p.half_voltage if tapped else p.secondary_voltage)
+                       for p in ctx.library.transformers
+                       if (p.center_tapped or not tapped)
+                       and (p.half_voltage if tapped else p.secondary_voltage)
+                       >= need_sel * (1 - 1e-9))
+        ceiling = min(steps[0] * (1 + 1e-6), need_sel * MAX_SECONDARY_EXCESS) if steps else None
         sel = select_transformer(
-            ctx.library.transformers, secondary_voltage=need_v, va=L["transformer.va_sized"],
-            secondary_voltage_max=ceiling, primary_voltage=ctx.spec.mains.nominal)
+            ctx.library.transformers, secondary_voltage=need_sel, va=L["transformer.va_sized"],
+            center_tapped=tapped, secondary_voltage_max=ceiling,
+            primary_voltage=ctx.spec.mains.nominal)
         part = require(sel, "transformer")
         ctx.picks["T1"] = Pick("T1", "transformer", "library", part, sel.reason, sel.generic)
         _from_part(L, part)
         return
     need = L["transformer.v_rated_needed"]
+    if ctx.spec.rectifier.topology == "center-tap":
+        # standard center-tapped windings are twice a standard half (2 x 12 V = 24 V)
+        L.calc("transformer.v_rated", eq.PICKED, r"V_{sec}", "V",
+               "Rated whole winding (twice a standard half)",
+               {"x": "transformer.v_rated_needed"},
+               lambda x: 2 * standards.next_at_or_above(x / 2, standards.SECONDARY_VOLTAGES))
+        _pick_va(L)
+        ctx.picks["T1"] = Pick("T1", "transformer", "sized",
+                               reason="standard half-winding and VA steps at or above the need")
+        return
     try:
         standards.next_at_or_above(need, standards.SECONDARY_VOLTAGES)
     except standards.NoStandardValue:
@@ -160,6 +199,12 @@ def _size_rating(ctx: SizingContext, L: Ledger) -> None:
     L.calc("transformer.v_rated", eq.PICKED, r"V_{sec}", "V",
            "Rated secondary voltage (standard step)", {"x": "transformer.v_rated_needed"},
            lambda x: standards.next_at_or_above(x, standards.SECONDARY_VOLTAGES))
+    _pick_va(L)
+    ctx.picks["T1"] = Pick("T1", "transformer", "sized",
+                           reason="standard secondary and VA steps at or above the need")
+
+
+def _pick_va(L: Ledger) -> None:
     try:
         standards.next_at_or_above(L["transformer.va_sized"], standards.TRANSFORMER_VA)
     except standards.NoStandardValue:
@@ -170,5 +215,3 @@ def _size_rating(ctx: SizingContext, L: Ledger) -> None:
     L.calc("transformer.va", eq.PICKED, "S", "VA", "Rated apparent power (standard step)",
            {"x": "transformer.va_sized"},
            lambda x: standards.next_at_or_above(x, standards.TRANSFORMER_VA))
-    ctx.picks["T1"] = Pick("T1", "transformer", "sized",
-                           reason="standard secondary and VA steps at or above the need")

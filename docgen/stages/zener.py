@@ -130,7 +130,7 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
     L.calc("zener.r_p_rating_needed", eq.DERATED_NEED, r"P_{R,rated,req}", "W",
            "Resistor power rating needed", {"x": "zener.r_p", "k": "margins.resistor_power"},
            lambda x, k: x / k)
-    zpick = ctx.picks.get("D1")
+    zpick = ctx.picks.get("DZ1")
     if zpick is not None and zpick.part is not None:
         part = zpick.part
         L.given("zener.p_rating", r"P_{Z,rated}", part.power_at(spec.environment.ambient_max),
@@ -138,13 +138,13 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
                 f"({part.power_reference} reference)", source=f"library part {part.id}")
     elif out.zener.power is not None:
         L.given("zener.p_rating", r"P_{Z,rated}", out.zener.power, "W", "Zener power rating (fixed)")
-        ctx.picks["D1"] = Pick("D1", "zener", "fixed", reason="power rating given in the file")
+        ctx.picks["DZ1"] = Pick("DZ1", "zener", "fixed", reason="power rating given in the file")
     else:
         _pick(L, "zener.p_rating", r"P_{Z,rated}", "Zener power rating (standard class)",
               _with_floor(ctx, L, "zener_power", "zener.p_rating_needed", "zener.p_floor",
                           r"P_{Z,floor}", "Zener rating floor"),
               standards.ZENER_POWERS, "zener")
-        ctx.picks["D1"] = Pick("D1", "zener", "sized",
+        ctx.picks["DZ1"] = Pick("DZ1", "zener", "sized",
                                reason="standard power class at or above the derated need")
     rpick = ctx.picks.get("R1")
     if rpick is not None and rpick.part is not None:

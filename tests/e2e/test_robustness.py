@@ -16,9 +16,9 @@ from hypothesis import strategies as st
 
 from docgen.cli import main
 
-from ..conftest import DEMO
+from ..conftest import DEMO, DEMO_STANDALONE
 
-BASE = DEMO.read_text()
+BASE = DEMO_STANDALONE
 
 # (section, key) pairs of the demo spec whose values the property test replaces.
 FIELDS = [

@@ -78,10 +78,11 @@ def test_minimal_file_loads_with_documented_defaults(tmp_path):
     # IEC 60063: E6 parts are +/-20 % (REFERENCES §10), the usual electrolytic tolerance.
     assert req.reservoir.tolerance == pytest.approx(0.20)
     # Common practice, no source: derate capacitor voltage to 80 % (REFERENCES §5) and zener
-    # power to 50 % (REFERENCES §6); bridge secondary RMS factor 1.8 (REFERENCES §2).
+    # power to 50 % (REFERENCES §6); the secondary RMS factor is left to the topology default
+    # (bridge 1.8, REFERENCES §2), applied by the pipeline.
     assert req.margins.capacitor_voltage_derating == pytest.approx(0.80)
     assert req.margins.zener_power_derating == pytest.approx(0.50)
-    assert req.margins.secondary_rms_factor == pytest.approx(1.8)
+    assert req.margins.secondary_rms_factor is None
     # Unsized parts stay open.
     assert req.transformer.secondary is None and req.reservoir.capacitance is None
     assert out.series_resistor is None and out.zener.voltage is None
