@@ -34,7 +34,7 @@ STATUS_TEXT = {
     COLLAPSED: "no steady state with a positive capacitor voltage (the load asks for more "
     "than the source gives)",
     CONTINUOUS: "diode current does not return to zero within a pulse period (continuous "
-    "conduction is outside the model)",
+    "conduction, or an overload with inductance; outside the model)",
 }
 
 DEFAULT_STEPS_PER_PERIOD = 512
@@ -210,7 +210,7 @@ class _Chunk:
         margin = 0.25 * (win[1] - win[0]) + 2.0 * step
         return np.clip(np.stack([win[0] - margin, win[1] + margin]), 0.0, self.p.span)
 
-    def _newton(self, active: np.ndarray, grid: np.ndarray, tol: float):
+    def _newton(self, active: np.ndarray, grid: np.ndarray, tol: float, final: bool):
         """One period-map evaluation and safeguarded Newton update for the active points."""
         q = self.p.take(active)
         ld = self.load.take(active)
@@ -235,13 +235,22 @@ class _Chunk:
         # below 0 V, a current sink, does this). P is increasing, so P(v) < 0 for some v >= 0
         # proves it.
         collapsed = r.v_c_end < -tol * scale
-        continuous = (r.i_end > 0) & ~collapsed
-        self.status[active[collapsed]] = COLLAPSED
-        self.status[active[continuous]] = CONTINUOUS
+        # Current left at the end of the pass; a trace (a fully discharged capacitor at the zero
+        # crossing) does not count.
+        flowing = r.i_end > WINDOW_THRESHOLD * np.maximum(r.i.max(axis=0), 0.0)
+        # With inductance and current still flowing at the end, the pass's zero-current start was
+        # wrong, so the collapse is not proven: report continuous conduction instead.
+        carried = collapsed & flowing & (q.l_s > 0)
+        collapsed &= ~carried
         # Converged: the Newton correction is below tol, or the cycle already closes to rounding
         # level (a nearly neutral map, e.g. no load, where the correction is all rounding noise).
         conv = newton & (np.abs(step) <= tol * scale)
         conv |= np.abs(g) <= CLOSE_TOL * scale
+        # Current still flowing at the end of a pass is judged only at the converged state: a
+        # start far below it can charge right through the zero crossing.
+        continuous = (conv & flowing & ~collapsed & final) | carried
+        self.status[active[collapsed]] = COLLAPSED
+        self.status[active[continuous]] = CONTINUOUS
         return r, q, ld, vn, conv, collapsed | continuous
 
     def _coarse(self, active: np.ndarray, grid: np.ndarray) -> np.ndarray:
@@ -249,7 +258,7 @@ class _Chunk:
         cap = max(1, self.max_passes // 2)
         out = []
         while active.size:
-            r, _, _, vn, conv, bad = self._newton(active, grid, COARSE_TOL)
+            r, _, _, vn, conv, bad = self._newton(active, grid, COARSE_TOL, final=False)
             self.v[active] = np.where(bad, self.v[active], vn)
             exhausted = ~conv & ~bad & (self.iters[active] >= cap)
             go = (conv | exhausted) & ~bad
@@ -268,7 +277,7 @@ class _Chunk:
             active = active[self.iters[active] < self.max_passes]
             if not active.size:
                 break
-            r, q, ld, vn, conv, bad = self._newton(active, grid, self.tol)
+            r, q, ld, vn, conv, bad = self._newton(active, grid, self.tol, final=True)
             if first:
                 win = _window(grid[:, active], r.i)
                 moved = (win[0] < self.dense[0, active]) | (win[1] > self.dense[1, active])

@@ -6,7 +6,9 @@ Model of a path (one diode, or the two series diodes of a bridge, and its source
     C dv_C/dt = i_c,   v_p = v_C + esr * i_c,       i_c = i - i_load(v_p)
 
 where r_lin = r_s + m * diode_rs and J is the total junction voltage of the m series diodes.
-The trapezoidal rule is applied to C and L. With the piecewise-linear load the step reduces to
+The trapezoidal rule is applied to L, and to C unless the step is longer than the capacitor's
+fastest time constant (then a damped theta-method, see integrate). With the piecewise-linear load
+the step reduces to
 ``A - R* i - mvt ln(1 + i/Is) = 0`` on one load segment, solved in closed form with the Wright
 omega function, so a step costs a fixed number of array operations and never fails to converge.
 
@@ -49,7 +51,8 @@ def solve_path(p: Params, load: Load, ep, a, z, r2) -> Solution:
     """Solve ep - r2 i - J(i) - v_p = 0 with v_p = a + z * (i - i_load(v_p)).
 
     ep: source voltage including inductor history; a: capacitor history; z: discrete impedance of
-    the capacitor branch (h / 2C + esr); r2: path resistance including the discrete inductor.
+    the capacitor branch (theta h / C + esr); r2: path resistance including the discrete inductor
+    (r_lin + 2 L / h).
     """
     isat, mvt = p.isat, p.mvt
     if load.breaks:
