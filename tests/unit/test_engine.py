@@ -125,6 +125,34 @@ def test_energy_balance(topology, load):
     np.testing.assert_allclose(got.p_in, losses, rtol=0.005)
 
 
+def test_zener_shunt_line_regulation():
+    # Sedra & Smith, zener shunt regulator: line regulation dVo/dVin = r_z / (R + r_z)
+    # (from memory; REFERENCES.md section 6). While the zener conducts all the time the
+    # capacitor ripple reaches the output scaled by exactly this ratio.
+    r_ser, r_z, v_z0, i_out = 100.0, 5.0, 9.0, 0.02
+    got = simulate(
+        Circuit(
+            "bridge",
+            15.0,
+            50.0,
+            0.5,
+            0.0,
+            470e-6,
+            0.05,
+            load="zener",
+            r_series=r_ser,
+            v_z0=v_z0,
+            r_z=r_z,
+            i_out=i_out,
+        )
+    )
+    assert got.i_z_min[0] > 0
+    assert got.v_out_pp[0] == pytest.approx(got.ripple_pp[0] * r_z / (r_ser + r_z), rel=1e-3)
+    # Zener law at its largest current, and Kirchhoff at the node on average.
+    assert got.v_out_max[0] == pytest.approx(v_z0 + r_z * got.i_z_max[0], rel=1e-6)
+    assert got.p_out[0] == pytest.approx(got.v_out_mean[0] * i_out, rel=1e-6)
+
+
 def test_large_capacitor_gives_peak_minus_diode_drops():
     # With C -> large the ripple vanishes, and at the instant of peak current the loop equation
     # gives Vc = Vpk - r_s i - m (n Vt ln(1 + i/Is) + Rs i) (Shockley law, Sedra & Smith,
