@@ -33,6 +33,10 @@ def design_for(spec_path: Path) -> Design:
     return run(load_requirements(spec_path))
 
 
+DRAWN_AS = {"zener": "zener", "follower": "follower", "three-terminal": "three-terminal",
+            "adjustable": "adjustable", "none": "none"}
+
+
 def schematic_for(design: Design) -> str:
     """The circuit as drawn from the design's parts and values (SVG)."""
     from .schematic import OutputDrawing, SchematicDrawing, schematic_svg
@@ -53,8 +57,9 @@ def schematic_for(design: Design) -> str:
         transformer=f"T1 {label('T1')}",
         rectifier=f"{rect} {label(rect)}",
         outputs=(OutputDrawing(
-            name=out.name, regulator="zener",
-            labels={"C1": label("C1"), "R1": label("R1"), "DZ1": label("DZ1")},
+            name=out.name, regulator=DRAWN_AS[out.regulator],
+            labels={ref: label(ref) for ref in parts if ref not in ("T1", rect)
+                    and not ref.startswith("HS")},
             v_out_text=f"{out.voltage:g} V, {out.load_max * 1e3:g} mA"),),
     )
     return schematic_svg(drawing)
@@ -77,17 +82,27 @@ def draw_plots(design: Design) -> dict[str, str]:
         plots["waveforms_nominal"] = figure_svg(waveform_plot(
             design.waveforms["nominal"], "Nominal mains, full load", limits))
     if design.samples:
-        panels = [
+        candidates = [
             {"metric": "v_out_max", "title": "Highest output voltage", "unit": "V",
-             "limits": [v["output.v_upper_limit"].value]},
+             "limits": ["output.v_upper_limit"]},
             {"metric": "v_out_pp", "title": "Output ripple", "unit": "mV", "scale": 1e3,
-             "limits": [v["output.ripple_max"].value]},
+             "limits": ["output.ripple_max"]},
             {"metric": "p_zener", "title": "Zener dissipation", "unit": "W",
-             "limits": [v["zener.p_allowed"].value]},
+             "limits": ["zener.p_allowed"]},
             {"metric": "i_z_min", "title": "Zener current at the trough", "unit": "mA",
-             "scale": 1e3, "limits": [v["zener.i_min"].value]},
+             "scale": 1e3, "limits": ["zener.i_min"]},
+            {"metric": "t_j", "title": "Junction temperature", "unit": "degC",
+             "limits": ["margins.t_j_design"]},
+            {"metric": "v_c_min", "title": "Capacitor trough", "unit": "V",
+             "limits": ["regulator.v_in_min_needed"]},
+            {"metric": "i_sec_rms", "title": "Secondary RMS current", "unit": "mA",
+             "scale": 1e3, "limits": []},
         ]
-        plots["monte_carlo"] = figure_svg(histogram_plot(design.samples, panels))
+        panels = []
+        for c in candidates:
+            if c["metric"] in design.samples and all(i in v for i in c["limits"]):
+                panels.append({**c, "limits": [v[i].value for i in c["limits"]]})
+        plots["monte_carlo"] = figure_svg(histogram_plot(design.samples, panels[:4]))
     return plots
 
 

@@ -22,13 +22,19 @@ import numpy as np
 from .engine import Circuit, simulate, switch_on
 from .trace import Ledger
 
-# Inputs the circuit model is built from, for the trace of every engine value.
+# Inputs the circuit model can be built from, for the trace of every engine value.
 MODEL_INPUTS = (
     "transformer.v_nl", "mains.tol_low", "mains.tol_high", "mains.freq", "transformer.r_w",
     "transformer.l_s", "reservoir.c", "reservoir.tol", "reservoir.esr", "zener.r",
-    "zener.r_tol", "zener.v_knee_max", "zener.v_knee_min", "zener.r_z", "output.i_max",
-    "output.i_min_worst",
+    "zener.r_tol", "zener.v_knee_max", "zener.v_knee_min", "zener.v_max", "zener.v_min",
+    "zener.r_z", "output.i_max", "output.i_min_worst", "reg.i_q", "reg.dropout",
+    "reg.v_out_min", "q.i_r1",
 )
+
+
+def model_inputs(L: Ledger) -> tuple[str, ...]:
+    """The model inputs this design has (they differ by regulator kind)."""
+    return tuple(i for i in MODEL_INPUTS if i in L)
 
 
 # The first charging pulse ends within half a period; a shorter, coarser window than the
@@ -77,7 +83,8 @@ class CornerResult:
         return self.metrics[name][self.n_corners:]
 
 
-def corner_points(L: Ledger) -> PointSet:
+def corner_points(L: Ledger, kind: str = "zener") -> PointSet:
+    """Corners of the tolerances that matter for this regulator kind."""
     tl, th = L["mains.tol_low"], L["mains.tol_high"]
     lines = [("low line", 1 - tl), ("nominal mains", 1.0), ("high line", 1 + th)]
     least = L["output.i_min_worst"]
@@ -85,9 +92,17 @@ def corner_points(L: Ledger) -> PointSet:
              ("full load", L["output.i_max"])]
     c, tc = L["reservoir.c"], L["reservoir.tol"]
     caps = [(f"C -{tc * 100:g} %", c * (1 - tc)), (f"C +{tc * 100:g} %", c * (1 + tc))]
-    zeners = [("V_Z low", L["zener.v_knee_min"]), ("V_Z high", L["zener.v_knee_max"])]
-    r, tr = L["zener.r"], L["zener.r_tol"]
-    resistors = [(f"R -{tr * 100:g} %", r * (1 - tr)), (f"R +{tr * 100:g} %", r * (1 + tr))]
+    if kind == "zener":
+        zeners = [("V_Z low", L["zener.v_knee_min"]), ("V_Z high", L["zener.v_knee_max"])]
+    elif kind == "follower":
+        zeners = [("V_Z low", L["zener.v_min"]), ("V_Z high", L["zener.v_max"])]
+    else:
+        zeners = [("", 0.0)]
+    if kind in ("zener", "follower"):
+        r, tr = L["zener.r"], L["zener.r_tol"]
+        resistors = [(f"R -{tr * 100:g} %", r * (1 - tr)), (f"R +{tr * 100:g} %", r * (1 + tr))]
+    else:
+        resistors = [("", 1.0)]
     rows = list(itertools.product(lines, loads, caps, zeners, resistors))
     return PointSet(
         line=np.array([x[0][1] for x in rows]),
@@ -95,42 +110,49 @@ def corner_points(L: Ledger) -> PointSet:
         c=np.array([x[2][1] for x in rows]),
         v_z=np.array([x[3][1] for x in rows]),
         r=np.array([x[4][1] for x in rows]),
-        name=[", ".join(part[0] for part in x) for x in rows],
+        name=[", ".join(part[0] for part in x if part[0]) for x in rows],
         line_name=[x[0][0] for x in rows],
         load_name=[x[1][0] for x in rows],
     )
 
 
-def sample_points(L: Ledger, n: int, seed: int, t_min: float, t_max: float) -> PointSet:
+def sample_points(L: Ledger, n: int, seed: int, t_min: float, t_max: float,
+                  kind: str = "zener") -> PointSet:
     rng = np.random.default_rng(seed)
     tl, th = L["mains.tol_low"], L["mains.tol_high"]
     line = rng.uniform(1 - tl, 1 + th, n)
     load = rng.uniform(L["output.i_min_worst"], L["output.i_max"], n)
     c = L["reservoir.c"] * rng.uniform(1 - L["reservoir.tol"], 1 + L["reservoir.tol"], n)
-    vz_nom, tz, alpha = L["zener.v_nom"], L["zener.tol"], L["zener.tempco"]
-    temp = rng.uniform(t_min, t_max, n)
-    v_z = (vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp - 25.0)
-           - L["zener.r_z"] * L["zener.i_zt"])
-    r = L["zener.r"] * rng.uniform(1 - L["zener.r_tol"], 1 + L["zener.r_tol"], n)
+    temp = rng.uniform(t_min, t_max, n)  # drawn for every kind so samples stay comparable
+    if kind in ("zener", "follower"):
+        vz_nom, tz = L["zener.v_nom"], L["zener.tol"]
+        alpha = L["zener.tempco"] if "zener.tempco" in L else 0.0
+        v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp - 25.0)
+        if kind == "zener":
+            v_z = v_z - L["zener.r_z"] * L["zener.i_zt"]
+        r = L["zener.r"] * rng.uniform(1 - L["zener.r_tol"], 1 + L["zener.r_tol"], n)
+    else:
+        v_z = np.zeros(n)
+        r = np.ones(n)
     return PointSet(line, load, c, v_z, r, name=[f"sample {k + 1}" for k in range(n)],
                     line_name=["sample"] * n, load_name=["sample"] * n)
 
 
-def _circuit(L: Ledger, pts: PointSet, topology: str) -> Circuit:
-    return Circuit(
-        topology=topology,
-        v_rms=L["transformer.v_nl"] * pts.line,
-        freq=L["mains.freq"],
-        r_s=L["transformer.r_w"],
-        l_s=L["transformer.l_s"],
-        c=pts.c,
-        esr=L["reservoir.esr"],
-        load="zener",
-        r_series=pts.r,
-        v_z0=pts.v_z,
-        r_z=L["zener.r_z"],
-        i_out=pts.load,
-    )
+def _circuit(L: Ledger, pts: PointSet, topology: str, kind: str = "zener") -> Circuit:
+    common = dict(topology=topology, v_rms=L["transformer.v_nl"] * pts.line, freq=L["mains.freq"],
+                  r_s=L["transformer.r_w"], l_s=L["transformer.l_s"], c=pts.c,
+                  esr=L["reservoir.esr"])
+    if kind == "zener":
+        return Circuit(**common, load="zener", r_series=pts.r, v_z0=pts.v_z,
+                       r_z=L["zener.r_z"], i_out=pts.load)
+    if kind == "none":
+        return Circuit(**common, load="current", i_load=pts.load)
+    # Series regulators draw their load current plus a bias; below the dropout the current
+    # falls with the voltage (the engine's regulator load). The follower's base-resistor
+    # current is taken at its design value (a small part of the input current).
+    bias = L["reg.i_q"] if "reg.i_q" in L else L["q.i_r1"]
+    floor = (L["reg.v_out_min"] + L["reg.dropout"]) if "reg.dropout" in L else L["zener.v_min"]
+    return Circuit(**common, load="regulator", i_load=pts.load, i_q=bias, v_dropout_min=floor)
 
 
 def _concat(a: PointSet, b: PointSet | None) -> PointSet:
@@ -143,17 +165,16 @@ def _concat(a: PointSet, b: PointSet | None) -> PointSet:
 
 
 def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_max: float, *,
-            surge: bool = True) -> CornerResult:
-    corners = corner_points(L)
-    mc = sample_points(L, samples, seed, t_min, t_max) if samples > 0 else None
+            surge: bool = True, kind: str = "zener") -> CornerResult:
+    corners = corner_points(L, kind)
+    mc = sample_points(L, samples, seed, t_min, t_max, kind) if samples > 0 else None
     pts = _concat(corners, mc)
     # waveforms for the nominal corner and the low-line, full-load, C low corner
     nominal = next(k for k, n in enumerate(corners.name)
-                   if n.startswith("nominal mains, full load, C -") and "V_Z high" in n
-                   and "R -" in n)
-    trough = next(k for k, n in enumerate(corners.name)
-                  if n.startswith("low line, full load, C -") and "V_Z high" in n and "R +" in n)
-    ss = simulate(_circuit(L, pts, topology), keep_waveforms=(nominal, trough))
+                   if n.startswith("nominal mains, full load, C -"))
+    trough = max((k for k, n in enumerate(corners.name) if n.startswith("low line, full load, C -")),
+                 key=lambda k: (corners.v_z[k], corners.r[k]))
+    ss = simulate(_circuit(L, pts, topology, kind), keep_waveforms=(nominal, trough))
     metrics: dict[str, Any] = {name: getattr(ss, name) for name in (
         "v_c_max", "v_c_min", "v_c_mean", "ripple_pp", "conduction_angle", "i_d_peak",
         "i_d_avg", "i_d_rms", "i_sec_rms", "va_sec", "i_c_rms", "p_source", "p_diodes",
@@ -168,7 +189,7 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
         one = PointSet(*(getattr(corners, f)[[k]] for f in ("line", "load", "c", "v_z", "r")),
                        name=[corners.name[k]], line_name=[corners.line_name[k]],
                        load_name=[corners.load_name[k]])
-        so = switch_on(_circuit(L, one, topology), periods=SURGE_PERIODS,
+        so = switch_on(_circuit(L, one, topology, kind), periods=SURGE_PERIODS,
                        steps_per_period=SURGE_STEPS)
         surge_peak, surge_i2t, surge_ok = (float(so.i_peak[0]), float(so.i2t[0]),
                                            bool(so.converged[0]))

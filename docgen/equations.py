@@ -314,3 +314,61 @@ WINDING_R_PATH = _eq(
     "common practice: the regulation is taken as the resistive drop at rated current, "
     "(V_NL - V_FL) = I_rated R_w, per conducting winding",
 )
+
+# ---------------------------------------------------------------- series regulators
+OHM = _eq("ohm.r_or_i", "Ohm's law", r"\frac{$v}{$i}", {"v": "V", "i": "I"}, "Ohm's law")
+PREFERRED_E96 = _eq("eseries.nearest96", "Nearest E96 value", r"\mathrm{E96}($x)", {"x": "x"},
+                    "IEC 60063:2015 E96 series")
+ADJ_R2 = _eq(
+    "adjustable.r2", "Divider resistor R2 of an adjustable regulator",
+    r"\frac{$v - $r}{$r/$a + $i}",
+    {"v": r"V_{out}", "r": r"V_{ref}", "a": r"R_1", "i": r"I_{ADJ}"},
+    "adjustable three-terminal regulator: V_out = V_ref (1 + R2/R1) + I_ADJ R2 (makers' "
+    "datasheets; common practice)",
+)
+ADJ_VOUT = _eq(
+    "adjustable.v_out", "Output voltage of an adjustable regulator",
+    r"$r \cdot \left(1 + \frac{$b}{$a}\right) + $i \cdot $b",
+    {"r": r"V_{ref}", "a": r"R_1", "b": r"R_2", "i": r"I_{ADJ}"},
+    "adjustable three-terminal regulator relation (common practice)",
+)
+RIPPLE_RR_ALLOWED = _eq(
+    "regulator.ripple_rejection_allowed", "Input ripple allowed by the ripple rejection",
+    r"$o \cdot 10^{$r/20}", {"o": r"V_{r,out}", "r": "RR"},
+    "ripple rejection RR = 20 log10(V_r,in / V_r,out) (common practice)",
+)
+RIPPLE_RR_OUT = _eq(
+    "regulator.ripple_out_rr", "Output ripple through the regulator's ripple rejection",
+    r"$v \cdot 10^{-$r/20}", {"v": r"V_{r,in}", "r": "RR"},
+    "ripple rejection RR = 20 log10(V_r,in / V_r,out) (common practice)",
+)
+BASE_CURRENT = _eq("follower.base_current", "Base current of the pass transistor",
+                   r"\frac{$i}{$b + 1}", {"i": r"I_E", "b": r"\beta"},
+                   "bipolar transistor, I_E = (beta + 1) I_B (any circuits text)")
+FOLLOWER_R1 = _eq(
+    "follower.r1", "Largest base resistor of a zener-referenced emitter follower",
+    r"\frac{$v - $z}{$i}", {"v": r"V_{in,min}", "z": r"V_{Z,max}", "i": r"I_{Z,min} + I_{B,max}"},
+    "R. Roscoe, MIT OCW 6.101 (2007) sec. 10.2.3, base-drive design",
+)
+REG_POWER = _eq(
+    "regulator.dissipation", "Series regulator dissipation",
+    r"($v - $o) \cdot $i + $v \cdot $q",
+    {"v": r"V_{in}", "o": r"V_{out}", "i": r"I_{out}", "q": r"I_Q"},
+    "power balance of a linear regulator (common practice; makers' application notes)",
+)
+JUNCTION_BARE = _eq(
+    "thermal.junction_bare", "Junction temperature without a heat sink",
+    r"$t + $p \cdot $r", {"t": r"T_A", "p": "P", "r": r"\theta_{JA}"},
+    "thermal-resistance model (common practice)",
+)
+HEATSINK_NEEDED = _eq(
+    "thermal.heatsink_needed", "Heat-sink thermal resistance needed",
+    r"\frac{$j - $t}{$p} - $c - $s",
+    {"j": r"T_{J,design}", "t": r"T_A", "p": "P", "c": r"\theta_{JC}", "s": r"\theta_{CS}"},
+    "thermal-resistance model (common practice)",
+)
+JUNCTION = _eq(
+    "thermal.junction", "Junction temperature at the hottest ambient",
+    r"$t + $p \cdot $r", {"t": r"T_{A,max}", "p": r"P_{max}", "r": r"\theta_{total}"},
+    "thermal-resistance model (common practice)",
+)

@@ -6,7 +6,7 @@ from typing import Any
 
 from pydantic import BaseModel
 
-from .spec.models import Output, Requirements, Zener
+from .spec.models import LinearRegulator, Output, PassTransistor, Requirements, Zener
 from .units import format_quantity
 
 HEADER = """\
@@ -62,6 +62,8 @@ def field_reference_markdown() -> str:
         if key == "output":
             out += _section("[[output]]", Output)
             out += _section("[output.zener]", Zener)
+            out += _section("[output.linear]", LinearRegulator)
+            out += _section("[output.transistor]", PassTransistor)
         elif isinstance(ann, type) and issubclass(ann, BaseModel):
             out += _section(f"[{key}]", ann)
     return "\n".join(out).rstrip() + "\n"

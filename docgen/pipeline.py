@@ -20,12 +20,22 @@ from . import __version__
 from . import equations as eq
 from .cautions import STANDING, triggered_cautions
 from .checks import make_check, overall_status
-from .corners import MODEL_INPUTS, CornerResult, analyse
+from .corners import CornerResult, analyse, model_inputs
 from .design import Check, Design, PartChoice, Stage
 from .errors import InfeasibleDesign, SpecError, SpecIssue
 from .spec import LoadedSpec
 from .spec.models import Requirements
-from .stages import mains, model, rectifier, regulator_needs, reservoir, transformer, zener
+from .stages import (
+    mains,
+    model,
+    rectifier,
+    regulator_needs,
+    reservoir,
+    series,
+    transformer,
+    zener,
+)
+from .stages.series import thermal_chain
 from .stages.context import SizingContext
 from .trace import Assumption, Ledger, TraceError
 from .units import format_quantity as fq
@@ -40,15 +50,69 @@ RECT_TEXT = {
 RMS_FACTORS = {"bridge": 1.8, "center-tap": 1.2, "half-wave": 3.6}
 LIFE_CAP = 15 * 8766 * 3600.0  # s; 15 years of 8766 h
 
+def _needs(ctx: SizingContext, L: Ledger) -> None:
+    if ctx.spec.output[0].regulator == "zener":
+        regulator_needs.size_regulator_needs(ctx, L)
+    else:
+        series.needs_series(ctx, L)
+
+
+def _regulator(ctx: SizingContext, L: Ledger) -> None:
+    if ctx.spec.output[0].regulator == "zener":
+        zener.size_zener(ctx, L)
+    else:
+        series.size_series(ctx, L)
+
+
+REGULATOR_TEXT = {
+    "zener": (zener.TITLE, zener.INTRO),
+    "follower": ("Emitter-follower regulator",
+                 "A zener fed through R1 holds the base of an NPN pass transistor; the output is "
+                 "the zener voltage less V_BE. R1 must supply the minimum zener current plus the "
+                 "largest base current at the ripple trough; the transistor dissipates the "
+                 "input-output difference times the load current."),
+    "three-terminal": ("Three-terminal regulator",
+                       "A fixed three-terminal regulator needs its dropout above the output at "
+                       "the ripple trough; it passes the ripple reduced by its ripple rejection "
+                       "and dissipates the input-output difference times the load current."),
+    "adjustable": ("Adjustable three-terminal regulator",
+                   "The divider R1 (output to adjust) and R2 (adjust to ground) sets the output "
+                   "from the reference; R1 also carries the regulator's minimum load. The "
+                   "regulator needs its dropout above the output at the ripple trough."),
+    "none": ("Unregulated output",
+             "Without a regulator the reservoir voltage is the output: its trough, peak and "
+             "ripple must all lie inside the output requirements."),
+}
+NEEDS_TEXT = {
+    "zener": (regulator_needs.TITLE, regulator_needs.INTRO),
+    "other": ("Regulator requirements",
+              "What the regulator needs from the reservoir at the ripple trough, and the current "
+              "it draws; everything upstream is sized backwards from these."),
+}
+
 STAGES = (
-    (mains, mains.size_mains),
-    (regulator_needs, regulator_needs.size_regulator_needs),
-    (transformer, transformer.size_transformer),
-    (reservoir, reservoir.size_reservoir),
-    (zener, zener.size_zener),
-    (model, model.model_circuit),
-    (rectifier, rectifier.size_rectifier),
+    ("mains", mains.size_mains),
+    ("regulator_needs", _needs),
+    ("transformer", transformer.size_transformer),
+    ("reservoir", reservoir.size_reservoir),
+    ("zener", _regulator),
+    ("model", model.model_circuit),
+    ("rectifier", rectifier.size_rectifier),
 )
+
+
+def _stage_meta(spec: Requirements) -> list[Stage]:
+    kind = spec.output[0].regulator
+    text = {
+        "mains": (mains.TITLE, mains.INTRO),
+        "regulator_needs": NEEDS_TEXT["zener" if kind == "zener" else "other"],
+        "transformer": (transformer.TITLE, transformer.INTRO),
+        "reservoir": (reservoir.TITLE, reservoir.INTRO),
+        "zener": REGULATOR_TEXT[kind],
+        "model": (model.TITLE, model.INTRO),
+        "rectifier": (rectifier.TITLE, rectifier.INTRO),
+    }
+    return [Stage(sid, *text[sid]) for sid, _ in STAGES]
 
 ASSUMPTIONS = (
     Assumption("assume.engine",
@@ -96,31 +160,56 @@ class EngineCheck:
     nominal_line_only: bool = False  # ratings defined at nominal mains
 
 
-ENGINE_CHECKS = (
-    EngineCheck("check.headroom", "Drop across R at the trough >= headroom", "headroom", "min",
-                "output.headroom", r"V_{R,min}", "V", "R1", "output[0].headroom"),
-    EngineCheck("check.zener_current", "Zener current at the trough >= I_Z,min", "i_z_min", "min",
-                "zener.i_min", r"I_{Z,min}", "A", "DZ1", "output[0].zener.knee_current"),
-    EngineCheck("check.zener_power", "Zener dissipation <= derated rating", "p_zener", "max",
-                "zener.p_allowed", r"P_Z", "W", "DZ1", "margins.zener_power_derating"),
-    EngineCheck("check.resistor_power", "Series-resistor dissipation <= derated rating",
-                "p_r_series", "max", "zener.r_p_allowed", r"P_R", "W", "R1",
-                "margins.resistor_power_derating"),
-    EngineCheck("check.output_ripple", "Output ripple <= limit", "v_out_pp", "max",
-                "output.ripple_max", r"V_{r,out}", "V", "", "output[0].ripple_max"),
-    EngineCheck("check.output_high", "Highest output voltage <= upper limit", "v_out_max", "max",
-                "output.v_upper_limit", r"V_{out,max}", "V", "", "output[0].tolerance"),
-    EngineCheck("check.output_low", "Lowest output voltage >= lower limit", "v_out_min", "min",
-                "output.v_lower_limit", r"V_{out,min}", "V", "", "output[0].tolerance"),
+COMMON_CHECKS = (
     EngineCheck("check.transformer_current", "Secondary RMS current <= rated current",
                 "i_sec_rms", "max", "transformer.i_rated", r"I_{sec,rms}", "A", "T1", "",
                 nominal_line_only=True),
-    EngineCheck("check.bridge_current", "Bridge output current <= derated I_F(AV)", "i_dc",
+    EngineCheck("check.bridge_current", "Rectifier output current <= derated I_F(AV)", "i_dc",
                 "max", "rect.i_allowed", r"I_{DC}", "A", "RECT",
                 "margins.diode_current_derating"),
     EngineCheck("check.cap_ripple_current", "Capacitor ripple current <= rating", "i_c_rms",
                 "max", "reservoir.i_ripple_rating", r"I_{C,rms}", "A", "C1", ""),
 )
+OUTPUT_RIPPLE = EngineCheck("check.output_ripple", "Output ripple <= limit", "v_out_pp", "max",
+                            "output.ripple_max", r"V_{r,out}", "V", "", "output[0].ripple_max")
+OUTPUT_HIGH = EngineCheck("check.output_high", "Highest output voltage <= upper limit",
+                          "v_out_max", "max", "output.v_upper_limit", r"V_{out,max}", "V", "",
+                          "output[0].tolerance")
+OUTPUT_LOW = EngineCheck("check.output_low", "Lowest output voltage >= lower limit", "v_out_min",
+                         "min", "output.v_lower_limit", r"V_{out,min}", "V", "",
+                         "output[0].tolerance")
+ZENER_CURRENT = EngineCheck("check.zener_current", "Zener current at the trough >= I_Z,min",
+                            "i_z_min", "min", "zener.i_min", r"I_{Z,min}", "A", "DZ1",
+                            "output[0].zener.knee_current")
+ZENER_POWER = EngineCheck("check.zener_power", "Zener dissipation <= derated rating", "p_zener",
+                          "max", "zener.p_allowed", r"P_Z", "W", "DZ1",
+                          "margins.zener_power_derating")
+RESISTOR_POWER = EngineCheck("check.resistor_power", "Series-resistor dissipation <= derated "
+                             "rating", "p_r_series", "max", "zener.r_p_allowed", r"P_R", "W",
+                             "R1", "margins.resistor_power_derating")
+
+ENGINE_CHECKS: dict[str, tuple[EngineCheck, ...]] = {
+    "zener": (
+        EngineCheck("check.headroom", "Drop across R at the trough >= headroom", "headroom",
+                    "min", "output.headroom", r"V_{R,min}", "V", "R1", "output[0].headroom"),
+        ZENER_CURRENT, ZENER_POWER, RESISTOR_POWER, OUTPUT_RIPPLE, OUTPUT_HIGH, OUTPUT_LOW,
+        *COMMON_CHECKS),
+    "follower": (
+        ZENER_CURRENT, ZENER_POWER, RESISTOR_POWER,
+        EngineCheck("check.transistor_junction", "Pass-transistor junction <= design limit",
+                    "t_j", "max", "margins.t_j_design", r"T_J", "degC", "Q1",
+                    "margins.junction_max"),
+        OUTPUT_RIPPLE, *COMMON_CHECKS),
+    "three-terminal": (
+        EngineCheck("check.dropout", "Capacitor trough >= output plus dropout", "v_c_min", "min",
+                    "regulator.v_in_min_needed", r"V_{C,min}", "V", "U1", ""),
+        EngineCheck("check.regulator_junction", "Regulator junction <= design limit", "t_j",
+                    "max", "margins.t_j_design", r"T_J", "degC", "U1", "margins.junction_max"),
+        OUTPUT_RIPPLE, *COMMON_CHECKS),
+    "none": (OUTPUT_RIPPLE, OUTPUT_HIGH, OUTPUT_LOW, *COMMON_CHECKS),
+}
+ENGINE_CHECKS["adjustable"] = ENGINE_CHECKS["three-terminal"]
+ALL_CHECK_IDS = list(dict.fromkeys(c.id for checks in ENGINE_CHECKS.values() for c in checks))
 
 
 def _ref(spec: Requirements, ref: str) -> str:
@@ -128,10 +217,41 @@ def _ref(spec: Requirements, ref: str) -> str:
     return rectifier.rectifier_ref(spec.rectifier.topology) if ref == "RECT" else ref
 
 
-def _derived_metrics(cr: CornerResult) -> None:
+def _derived_metrics(cr: CornerResult, L: Ledger, spec: Requirements) -> None:
+    """Figures the checks need that follow from the engine's by a formula of the regulator."""
     m = cr.metrics
-    m["headroom"] = m["v_c_min"] - m["v_out_mean"]
-    m["i_dc"] = 2.0 * m["i_d_avg"]
+    kind = spec.output[0].regulator
+    pts_load = np.concatenate([cr.corners.load] + ([cr.samples.load] if cr.samples else []))
+    pts_vz = np.concatenate([cr.corners.v_z] + ([cr.samples.v_z] if cr.samples else []))
+    pts_r = np.concatenate([cr.corners.r] + ([cr.samples.r] if cr.samples else []))
+    m["i_dc"] = m["i_d_avg"] * (1.0 if spec.rectifier.topology == "half-wave" else 2.0)
+    if kind == "zener":
+        m["headroom"] = m["v_c_min"] - m["v_out_mean"]
+    elif kind in ("three-terminal", "adjustable"):
+        rr = 10 ** (-L["reg.rr"] / 20)
+        m["v_out_pp"] = m["ripple_pp"] * rr
+        p_reg = (m["v_c_mean"] - L["reg.v_out_min"]) * pts_load + m["v_c_mean"] * L["reg.i_q"]
+        m["p_reg"] = p_reg
+        m["t_j"] = L["env.t_max"] + p_reg * thermal_chain(L, "reg")
+        m["p_out"] = L["reg.v_out"] * pts_load
+    elif kind == "follower":
+        beta = L["q.h_fe"]
+        i_b = pts_load / (beta + 1)
+        i_r1 = (m["v_c_min"] - pts_vz) / pts_r
+        m["i_z_min"] = i_r1 - i_b
+        i_r1_mean = (m["v_c_mean"] - pts_vz) / pts_r
+        m["p_zener"] = pts_vz * np.maximum(i_r1_mean - i_b, 0.0)
+        m["p_r_series"] = (m["v_c_mean"] - pts_vz) ** 2 / pts_r
+        v_out = pts_vz - L["q.v_be"]
+        m["p_q"] = (m["v_c_mean"] - v_out) * pts_load
+        m["t_j"] = L["env.t_max"] + m["p_q"] * thermal_chain(L, "q")
+        m["v_out_pp"] = m["ripple_pp"] * L["zener.r_z"] / (pts_r + L["zener.r_z"])
+        m["p_out"] = v_out * pts_load
+    else:  # none: the reservoir is the output
+        m["v_out_pp"] = m["ripple_pp"]
+        m["v_out_max"] = m["v_c_max"]
+        m["v_out_min"] = m["v_c_min"]
+        m["p_out"] = m["v_c_mean"] * pts_load
 
 
 def _library(loaded: LoadedSpec):
@@ -182,8 +302,8 @@ def _size(ctx: SizingContext) -> Ledger:
     L = Ledger()
     L.stage = "margins"
     _record_margins(ctx.spec, L)
-    for module, fn in STAGES:
-        L.stage = module.__name__.rsplit(".", 1)[-1]
+    for stage_id, fn in STAGES:
+        L.stage = stage_id
         fn(ctx, L)
     L.stage = "reservoir"
     L.calc("reservoir.energy", eq.ENERGY, r"E_C", "J", "Energy stored at the highest voltage",
@@ -210,10 +330,12 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
     """Raise floors for sized parts that the engine found short; True if anything changed."""
     spec = ctx.spec
     fixed_t = bool(spec.transformer.part) or spec.transformer.secondary is not None
+    kind = spec.output[0].regulator
+    ids = {c.id for c in ENGINE_CHECKS[kind]}
     changed = False
 
     def worst(check_id: str) -> tuple[float, str]:
-        chk = next(c for c in ENGINE_CHECKS if c.id == check_id)
+        chk = next(c for c in ENGINE_CHECKS[kind] if c.id == check_id)
         value, k = _worst(cr, chk)
         return value, cr.corners.name[k] if k >= 0 else ""
 
@@ -221,7 +343,7 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
 
     def short(check_id: str, limit_id: str, sense: str) -> bool:
         """True when a sized part would fail, or sit inside the warning band, at some corner."""
-        if limit_id not in L:
+        if limit_id not in L or check_id not in ids:
             return False
         value, _ = worst(check_id)
         limit = L[limit_id]
@@ -236,7 +358,10 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
             "va", need, f"the engine found {fq(i, 'A')} RMS in the secondary at {where}, above "
             f"the {fq(L['transformer.i_rated'], 'A')} rating of a {fq(L['transformer.va'], 'VA')}"
             " transformer")
-    if not fixed_t and short("check.headroom", "output.headroom", "min"):
+    if not fixed_t and (short("check.headroom", "output.headroom", "min")
+                        or short("check.dropout", "regulator.v_in_min_needed", "min")
+                        or (kind == "follower"
+                            and short("check.zener_current", "zener.i_min", "min"))):
         from . import standards
 
         v = L["transformer.v_rated"]
@@ -244,8 +369,8 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
         changed |= ctx.floors.raise_to(
             "secondary", nxt, f"at the trough the engine found less than the required headroom "
             f"across R with a {fq(v, 'V')} secondary (winding resistance and diode drops)")
-    elif spec.output[0].series_resistor is None and short("check.zener_current", "zener.i_min",
-                                                          "min"):
+    elif kind == "zener" and spec.output[0].series_resistor is None and short(
+            "check.zener_current", "zener.i_min", "min"):
         i_z, where = worst("check.zener_current")
         i_l = L["output.i_max"]
         ceiling = L["zener.r"] * (i_l + i_z) / (i_l + L["zener.i_min"]) * 0.99
@@ -259,13 +384,13 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
         need = L["reservoir.c_required"] * ripple / L["output.ripple_max"] * 1.05
         changed |= ctx.floors.raise_to(
             "capacitance", need, f"the engine found {fq(ripple, 'V')} output ripple at {where}")
-    if spec.output[0].zener.power is None and short("check.zener_power", "zener.p_allowed",
-                                                    "max"):
+    if kind in ("zener", "follower") and spec.output[0].zener.power is None and short(
+            "check.zener_power", "zener.p_allowed", "max"):
         p, where = worst("check.zener_power")
         changed |= ctx.floors.raise_to(
             "zener_power", p / spec.margins.zener_power_derating / (1 - band),
             f"the engine found {fq(p, 'W')} in the zener at {where}")
-    if spec.output[0].resistor_power is None and short(
+    if kind in ("zener", "follower") and spec.output[0].resistor_power is None and short(
             "check.resistor_power", "zener.r_p_allowed", "max"):
         p, where = worst("check.resistor_power")
         changed |= ctx.floors.raise_to(
@@ -285,7 +410,8 @@ def _engine_values(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Chec
     w = spec.margins.warn_band
     L.stage = "corners"
     checks: list[Check] = []
-    for chk in ENGINE_CHECKS:
+    inputs = model_inputs(L)
+    for chk in ENGINE_CHECKS[spec.output[0].regulator]:
         if chk.limit_id not in L:
             continue
         value, k = _worst(cr, chk)
@@ -296,7 +422,7 @@ def _engine_values(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Chec
         vid = f"engine.{chk.id.split('.', 1)[1]}"
         L.measured(vid, eq.ENGINE, chk.symbol, value, chk.unit,
                    f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)",
-                   MODEL_INPUTS, cr.corners.name[k])
+                   inputs, cr.corners.name[k])
         checks.append(make_check(L, chk.id, chk.title, vid, chk.limit_id, chk.sense,
                                  cr.corners.name[k], w, ref=_ref(spec, chk.ref),
                                  requirement=chk.requirement))
@@ -314,7 +440,7 @@ def _engine_values(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Chec
     # Switch-on surge through the bridge.
     if cr.surge_converged:
         L.measured("engine.surge_peak", eq.ENGINE_SWITCH_ON, r"I_{surge}", cr.surge_peak, "A",
-                   "Switch-on surge peak (engine)", MODEL_INPUTS, "high line, C +tol")
+                   "Switch-on surge peak (engine)", model_inputs(L), "high line, C +tol")
         checks.append(make_check(L, "check.bridge_surge", "Switch-on surge <= I_FSM",
                                  "engine.surge_peak", "rect.i_fsm", "max",
                                  "switch-on at the crest, high line, C +tol", w,
@@ -331,7 +457,7 @@ def _engine_values(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Chec
         ("conduction_angle", "engine.conduction_nominal", r"\theta", "rad",
          "Conduction angle per pulse (engine, nominal)"),
     ):
-        L.measured(vid, eq.ENGINE, sym, float(cr.metrics[metric][k]), unit, title, MODEL_INPUTS,
+        L.measured(vid, eq.ENGINE, sym, float(cr.metrics[metric][k]), unit, title, model_inputs(L),
                    where)
     L.calc("engine.efficiency", eq.EFFICIENCY, r"\eta", "%", "Efficiency at nominal, full load",
            {"o": "engine.p_out_nominal", "i": "engine.p_in_nominal"}, lambda o, i: o / i)
@@ -350,6 +476,28 @@ def _hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]
                    "rect.v_allowed", "max", "high line, no load", w, ref=_ref(spec, "RECT"),
                    requirement="margins.diode_voltage_derating"),
     ]
+    kind = spec.output[0].regulator
+    if kind in ("three-terminal", "adjustable"):
+        out += [
+            make_check(L, "check.regulator_input", "Highest input voltage <= regulator rating",
+                       "reservoir.v_max", "reg.v_in_max", "max", "high line, no load", w,
+                       ref="U1"),
+            make_check(L, "check.output_high", "Highest output voltage <= upper limit",
+                       "reg.v_out_max", "output.v_upper_limit", "max",
+                       "regulator tolerance, high side", w, requirement="output[0].tolerance"),
+            make_check(L, "check.output_low", "Lowest output voltage >= lower limit",
+                       "reg.v_out_min", "output.v_lower_limit", "min",
+                       "regulator tolerance, low side", w, requirement="output[0].tolerance"),
+        ]
+    if kind == "follower":
+        out += [
+            make_check(L, "check.output_high", "Highest output voltage <= upper limit",
+                       "output.v_max_est", "output.v_upper_limit", "max", "zener high", w,
+                       requirement="output[0].tolerance"),
+            make_check(L, "check.output_low", "Lowest output voltage >= lower limit",
+                       "output.v_min_est", "output.v_lower_limit", "min", "zener low", w,
+                       requirement="output[0].tolerance"),
+        ]
     if "reservoir.life_rated" in L and spec.environment.required_life is not None:
         L.stage = "corners"
         L.given("env.required_life", r"L_{req}", spec.environment.required_life, "h",
@@ -359,7 +507,7 @@ def _hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]
                 defaulted="thermal_resistance" not in spec.reservoir.model_fields_set)
         i_c = float(np.nanmax(cr.corner_metric("i_c_rms")))
         L.measured("engine.i_c_rms_max", eq.ENGINE, r"I_{C,rms}", i_c, "A",
-                   "Largest capacitor ripple current (engine)", MODEL_INPUTS, "worst corner")
+                   "Largest capacitor ripple current (engine)", model_inputs(L), "worst corner")
         L.calc("reservoir.t_core", eq.CAP_CORE_TEMP, r"T_{core}", "degC",
                "Capacitor core temperature at the hottest ambient",
                {"t": "env.t_max", "i": "engine.i_c_rms_max", "e": "reservoir.esr",
@@ -384,7 +532,7 @@ def _monte_carlo(ctx: SizingContext, L: Ledger, cr: CornerResult) -> dict:
     n = len(cr.samples)
     ok = cr.converged[cr.n_corners:].copy()
     failing: dict[str, int] = {}
-    for chk in ENGINE_CHECKS:
+    for chk in ENGINE_CHECKS[ctx.spec.output[0].regulator]:
         if chk.limit_id not in L:
             continue
         vals = cr.sample_metric(chk.metric)
@@ -396,7 +544,9 @@ def _monte_carlo(ctx: SizingContext, L: Ledger, cr: CornerResult) -> dict:
         ok &= ~bad
     summary = {}
     for metric in ("v_out_mean", "v_out_pp", "p_zener", "p_r_series", "i_sec_rms", "i_z_min",
-                   "i_c_rms", "v_c_min"):
+                   "i_c_rms", "v_c_min", "t_j"):
+        if metric not in cr.metrics:
+            continue
         vals = cr.sample_metric(metric)
         vals = vals[np.isfinite(vals)]
         if vals.size:
@@ -449,7 +599,7 @@ def _parts(ctx: SizingContext, L: Ledger) -> list[PartChoice]:
             reason=pick.reason if pick else "",
             value_ids=ids)
 
-    return [
+    lines = [
         line("T1", "transformer", f"{v('transformer.v_rated')} {v('transformer.va')}",
              f"mains transformer, secondary {v('transformer.v_rated')} RMS at rated load, "
              f"at least {v('transformer.va')}, regulation at most {v('transformer.regulation')}",
@@ -464,13 +614,39 @@ def _parts(ctx: SizingContext, L: Ledger) -> list[PartChoice]:
              + (f", ripple current at least {v('engine.cap_ripple_current')}"
                 if "engine.cap_ripple_current" in L else ""),
              ("reservoir.c", "reservoir.v_rating")),
-        line("R1", "resistor", f"{v('zener.r')} {v('zener.r_p_rating')}",
-             f"resistor {v('zener.r')} +/-{v('zener.r_tol')}, at least {v('zener.r_p_rating')}",
-             ("zener.r", "zener.r_p_rating")),
-        line("DZ1", "zener", f"{v('zener.v_nom')} {v('zener.p_rating')}",
-             f"zener diode {v('zener.v_nom')} +/-{v('zener.tol')}, at least "
-             f"{v('zener.p_rating')}", ("zener.v_nom", "zener.p_rating")),
     ]
+    kind = ctx.spec.output[0].regulator
+    if kind in ("zener", "follower"):
+        lines += [
+            line("R1", "resistor", f"{v('zener.r')} {v('zener.r_p_rating')}",
+                 f"resistor {v('zener.r')} +/-{v('zener.r_tol')}, at least "
+                 f"{v('zener.r_p_rating')}", ("zener.r", "zener.r_p_rating")),
+            line("DZ1", "zener", f"{v('zener.v_nom')} {v('zener.p_rating')}",
+                 f"zener diode {v('zener.v_nom')} +/-{v('zener.tol')}, at least "
+                 f"{v('zener.p_rating')}", ("zener.v_nom", "zener.p_rating")),
+        ]
+    if kind == "follower":
+        lines.append(line("Q1", "transistor", f"NPN {v('q.v_ce_max')}",
+                          f"NPN power transistor, V_CEO at least {v('q.v_ce_max')}, I_C at least "
+                          f"{v('output.i_max')}, h_FE at least {v('q.h_fe')}", ("q.v_ce_max",)))
+    if kind in ("three-terminal", "adjustable"):
+        what = (f"fixed three-terminal regulator {v('reg.v_out')}" if kind == "three-terminal"
+                else f"adjustable three-terminal regulator, {v('reg.v_ref')} reference")
+        lines.append(line("U1", "regulator", v("reg.v_out"),
+                          f"{what}, at least {v('output.i_max')}, dropout at most "
+                          f"{v('reg.dropout')}, input rating at least {v('reservoir.v_max')}",
+                          ("reg.v_out", "reg.dropout")))
+        if kind == "adjustable":
+            lines += [line("R2", "resistor", v("reg.r1"), f"resistor {v('reg.r1')} 1 %, OUT to "
+                           "ADJ", ("reg.r1",)),
+                      line("R3", "resistor", v("reg.r2"), f"resistor {v('reg.r2')} 1 %, ADJ to "
+                           "ground", ("reg.r2",))]
+    for p_, ref in (("reg", "HS1"), ("q", "HS2")):
+        if f"{p_}.theta_sa" in L:
+            lines.append(line(ref, "heatsink", v(f"{p_}.theta_sa"),
+                              f"heat sink, at most {v(f'{p_}.theta_sa')} sink-to-ambient",
+                              (f"{p_}.theta_sa",)))
+    return lines
 
 
 def _guarded(fn: Callable[[], Any]) -> Any:
@@ -495,25 +671,25 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=_library(loaded))
     n_samples = spec.analysis.samples if samples is None else samples
     env = spec.environment
+    kind = spec.output[0].regulator
     for _ in range(MAX_PASSES):
         ctx.picks.clear()
         L = _guarded(lambda: _size(ctx))
-        cr = _guarded(lambda: analyse(L, spec.rectifier.topology, 0, spec.analysis.seed, env.ambient_min,
-                                      env.ambient_max, surge=False))
-        _derived_metrics(cr)
+        cr = _guarded(lambda: analyse(L, spec.rectifier.topology, 0, spec.analysis.seed,
+                                      env.ambient_min, env.ambient_max, surge=False, kind=kind))
+        _derived_metrics(cr, L, spec)
         if not _bumps(ctx, L, cr):
             break
     # Final run with the Monte Carlo samples and the switch-on surge on the settled design.
-    cr = _guarded(lambda: analyse(L, spec.rectifier.topology, n_samples, spec.analysis.seed, env.ambient_min,
-                                  env.ambient_max))
-    _derived_metrics(cr)
+    cr = _guarded(lambda: analyse(L, spec.rectifier.topology, n_samples, spec.analysis.seed,
+                                  env.ambient_min, env.ambient_max, kind=kind))
+    _derived_metrics(cr, L, spec)
     checks = _engine_values(ctx, L, cr)
-    checks.sort(key=lambda c: [ch.id for ch in ENGINE_CHECKS].index(c.id)
-                if c.id in [ch.id for ch in ENGINE_CHECKS] else 100)
+    checks.sort(key=lambda c: ALL_CHECK_IDS.index(c.id) if c.id in ALL_CHECK_IDS else 100)
     cautions = list(STANDING) + triggered_cautions(
         L["reservoir.v_max"], L["transformer.v_high_nl"], L["reservoir.energy"], checks)
     stages = [Stage("margins", "Design margins", "Derating factors and design ratios used below.")]
-    stages += [Stage(m.__name__.rsplit(".", 1)[-1], m.TITLE, m.INTRO) for m, _ in STAGES]
+    stages += _stage_meta(spec)
     stages.append(Stage("corners", "Worst-case corners (waveform engine)",
                         "Each value below is the worst over the 48 corners named in the "
                         "worst-case section, from the waveform engine; the corner is given "
@@ -539,7 +715,8 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
         corners=_corner_rows(cr),
         monte_carlo=_monte_carlo(ctx, L, cr),
         samples=({m: cr.sample_metric(m) for m in ("v_out_max", "v_out_min", "v_out_pp",
-                                                   "p_zener", "i_z_min", "i_sec_rms")}
+                                                   "p_zener", "i_z_min", "i_sec_rms", "t_j",
+                                                   "v_c_min") if m in cr.metrics}
                  if cr.samples is not None else {}),
         library=(str(ctx.library.path), ctx.library.sha256) if ctx.library else None,
     )

@@ -203,6 +203,61 @@ class Zener(Section):
                       description="Library part id of a fixed zener (needs [parts]).")
 
 
+class LinearRegulator(Section):
+    """Three-terminal regulator data (fixed or adjustable); typical figures by default."""
+
+    dropout: Voltage = q(2.0, "V", "Least input-output difference that keeps regulation.",
+                         "common practice: about 2 V for a fixed three-terminal regulator")
+    tolerance: Fraction = q(0.04, "%", "Output (fixed) or reference (adjustable) tolerance.",
+                            "common practice: +/-4 % standard grade")
+    quiescent_current: Current = q(0.006, "A", "Ground-pin current (fixed) drawn from the input.",
+                                   "common practice: a few mA")
+    ripple_rejection: float = Field(
+        default=60.0, ge=0.0, le=120.0,
+        description="Ripple rejection at the ripple frequency, dB (minimum figure).",
+        json_schema_extra={"unit": "dB",
+                           "default_source": "common practice: 62-68 dB minimum for fixed types"},
+    )
+    v_in_max: Voltage = q(35.0, "V", "Highest input voltage allowed.",
+                          "common practice for 5-15 V fixed types")
+    reference: Voltage = q(1.25, "V", "Reference voltage of an adjustable regulator.",
+                           "common practice")
+    adjust_current: Current = q(50e-6, "A", "Adjust-pin current of an adjustable regulator.",
+                                "common practice")
+    min_load: Current = q(0.005, "A", "Least load an adjustable regulator needs, taken by the "
+                          "divider.", "common practice")
+    t_j_max: Temperature = q(125.0, "degC", "Highest junction temperature allowed by the maker.",
+                             "common practice")
+    theta_jc: PositiveFraction = q(5.0, "K/W", "Junction-to-case thermal resistance.",
+                                   "common practice: TO-220 outline")
+    theta_ja: PositiveFraction = q(50.0, "K/W", "Junction-to-ambient thermal resistance without "
+                                   "a heat sink.", "common practice: TO-220 outline")
+    theta_cs: PositiveFraction = q(0.5, "K/W", "Case-to-sink thermal resistance (greased).",
+                                   "common practice")
+    part: str = Field(default="", max_length=80,
+                      description="Library part id of a fixed regulator (needs [parts]).")
+
+
+class PassTransistor(Section):
+    """NPN pass transistor of the zener-referenced emitter follower."""
+
+    h_fe_min: float = Field(default=40.0, ge=1.0, le=10000.0,
+                            description="Least current gain at the load current.",
+                            json_schema_extra={"unit": "", "default_source":
+                                               "common practice for a power transistor"})
+    v_be: Voltage = q(0.7, "V", "Base-emitter voltage at the load current.",
+                      "A. S. Sedra, K. C. Smith (0.6-0.7 V, from memory)")
+    t_j_max: Temperature = q(150.0, "degC", "Highest junction temperature.", "common practice")
+    theta_jc: PositiveFraction = q(3.0, "K/W", "Junction-to-case thermal resistance.",
+                                   "common practice: TO-220 power transistor")
+    theta_ja: PositiveFraction = q(62.5, "K/W", "Junction-to-ambient without a heat sink.",
+                                   "common practice: TO-220 outline")
+    theta_cs: PositiveFraction = q(0.5, "K/W", "Case-to-sink thermal resistance (greased).",
+                                   "common practice")
+    part: str = Field(default="", max_length=80,
+                      description="Library part id of a fixed transistor (needs [parts]).")
+
+
 class Output(Section):
     name: str = Field(min_length=1, max_length=80, description="Name of the output rail.")
     voltage: Voltage = q(..., "V", "Nominal output voltage.")
@@ -214,9 +269,11 @@ class Output(Section):
         description="True when the load can be unplugged, so the regulator sees no load.",
     )
     ripple_max: Voltage = q(..., "V", "Maximum output ripple, peak to peak.")
-    regulator: Literal["zener"] = Field(
+    regulator: Literal["zener", "follower", "three-terminal", "adjustable", "none"] = Field(
         default="zener",
-        description="Regulator kind. This version sizes the zener shunt regulator.",
+        description="Regulator kind: zener (shunt), follower (zener-referenced emitter "
+        "follower), three-terminal (fixed), adjustable (three-terminal with a divider), none "
+        "(the reservoir voltage is the output).",
     )
     headroom: Voltage = q(
         3.0, "V", "Minimum drop across the series element at the ripple trough, low line, "
@@ -229,6 +286,10 @@ class Output(Section):
     resistor_tolerance: Fraction = q(0.05, "%", "Series-resistor tolerance.",
                                      "common practice (E24 +/-5 % grade)")
     zener: Zener = Field(default_factory=Zener, description="Zener diode data.")
+    linear: LinearRegulator = Field(default_factory=LinearRegulator,
+                                    description="Three-terminal regulator data.")
+    transistor: PassTransistor = Field(default_factory=PassTransistor,
+                                       description="Pass transistor data (follower).")
 
     @field_validator("load_max")
     @classmethod
@@ -248,6 +309,10 @@ class Output(Section):
 
 
 class Margins(Section):
+    junction_max: Temperature = q(
+        110.0, "degC", "Highest junction temperature the design may reach (below the maker's "
+        "absolute limit).", "common practice: 100-110 degC for margin",
+    )
     capacitor_voltage_derating: PositiveFraction = q(
         0.80, "%", "Highest capacitor voltage as a fraction of its rating.", "common practice"
     )

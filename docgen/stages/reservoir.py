@@ -36,10 +36,15 @@ def size_reservoir(ctx: SizingContext, L: Ledger) -> None:
     L.calc("reservoir.v_max", eq.SINE_PEAK, r"V_{C,max}", "V",
            "Capacitor peak at high line, no load (no diode drop: conservative)",
            {"v": "transformer.v_high_nl"}, lambda v: math.sqrt(2) * v)
-    L.calc("regulator.i_in_high_est", eq.INPUT_CURRENT, r"I_{in,hi,est}", "A",
-           "Regulator input current at high line (estimate with R_target)",
-           {"v": "reservoir.v_pk_high", "z": "zener.v_min", "R": "regulator.r_target"},
-           lambda v, z, R: (v - z) / R)
+    if spec.output[0].regulator == "zener":
+        L.calc("regulator.i_in_high_est", eq.INPUT_CURRENT, r"I_{in,hi,est}", "A",
+               "Regulator input current at high line (estimate with R_target)",
+               {"v": "reservoir.v_pk_high", "z": "zener.v_min", "R": "regulator.r_target"},
+               lambda v, z, R: (v - z) / R)
+    else:
+        from .series import input_current_high
+
+        input_current_high(ctx, L)
     L.calc("reservoir.c_calc", eq.CAP_FOR_RIPPLE, r"C_{calc}", "F",
            "Capacitance for the allowed ripple at the largest input current",
            {"i": "regulator.i_in_high_est", "f": "mains.ripple_freq",
