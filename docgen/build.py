@@ -55,10 +55,12 @@ def schematic_for(design: Design) -> str:
         topology=topology,
         mains_text=f"{mains.nominal:g} V {mains.frequency:g} Hz",
         transformer=f"T1 {label('T1')}",
+        fuse=f"F1 {label('F1')}" if "F1" in parts else "",
+        bleeder=f"R9 {label('R9')}" if "R9" in parts else "",
         rectifier=f"{rect} {label(rect)}",
         outputs=(OutputDrawing(
             name=out.name, regulator=DRAWN_AS[out.regulator],
-            labels={ref: label(ref) for ref in parts if ref not in ("T1", rect)
+            labels={ref: label(ref) for ref in parts if ref not in ("T1", rect, "F1", "R9")
                     and not ref.startswith("HS")},
             v_out_text=f"{out.voltage:g} V, {out.load_max * 1e3:g} mA"),),
     )

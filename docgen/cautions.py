@@ -55,9 +55,28 @@ STORED_ENERGY_LIMIT = 20.0  # J, a stored-energy threshold used by equipment sta
 
 
 def triggered_cautions(
-    v_dc_max: float, v_sec_nl_max: float, stored_energy: float, checks: list[Check]
+    v_dc_max: float, v_sec_nl_max: float, stored_energy: float, checks: list[Check],
+    *, topology: str = "bridge", dual_frequency: tuple[float, float] | None = None,
 ) -> list[Caution]:
     out: list[Caution] = []
+    if topology == "half-wave":
+        out.append(Caution(
+            "caution.half_wave_dc", "DC in the transformer core",
+            "A half-wave rectifier draws current from the secondary in one direction only: the "
+            "DC component pre-magnetises the core, so the transformer runs hotter and draws "
+            "more magnetising current than its rating suggests. Keep half-wave designs to "
+            "small loads and ask the transformer maker.",
+            "common practice: makers' selection tables suggest half-wave for about 0.5 W or less",
+            triggered_by="rectifier.topology"))
+    if dual_frequency is not None:
+        lo, hi = sorted(dual_frequency)
+        out.append(Caution(
+            "caution.dual_frequency", f"Runs from {lo:g} Hz and {hi:g} Hz",
+            f"The design is sized at {lo:g} Hz, where the ripple is largest. The transformer "
+            f"must be rated for {lo:g} Hz: a transformer built for {hi:g} Hz can saturate and "
+            f"overheat at {lo:g} Hz, while a {lo:g} Hz design works at {hi:g} Hz.",
+            "common practice (transformer core flux rises as frequency falls)",
+            triggered_by="mains.freq"))
     if v_dc_max > SELV_DC_LIMIT:
         out.append(Caution(
             "caution.above_elv", "Output above extra-low voltage",

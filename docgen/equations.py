@@ -372,3 +372,28 @@ JUNCTION = _eq(
     r"$t + $p \cdot $r", {"t": r"T_{A,max}", "p": r"P_{max}", "r": r"\theta_{total}"},
     "thermal-resistance model (common practice)",
 )
+
+# ---------------------------------------------------------------- protection
+PRIMARY_RATED = _eq("fuse.primary_rated", "Rated primary current (rule of thumb)",
+                    r"\frac{$s}{$v}", {"s": "S", "v": r"V_{nom}"},
+                    "common practice: I_pri ~ VA_rated / V_pri for fuse sizing")
+TURNS_REFLECT = _eq("transformer.reflect_current", "Secondary current referred to the primary",
+                    r"$k \cdot $i \cdot \frac{$s}{$p}",
+                    {"k": r"k_{w}", "i": r"I_{sec,rms}", "s": r"V_{path,NL}", "p": r"V_{nom}"},
+                    "ideal transformer I1 = I2 N2/N1 (any circuits text); k_w = sqrt(2) when two "
+                    "half windings conduct in turn")
+I2T_REFLECT = _eq("transformer.reflect_i2t", "Switch-on I2t referred to the primary",
+                  r"$i \cdot \left(\frac{$s}{$p}\right)^2",
+                  {"i": r"I^2t_{sec}", "s": r"V_{path,NL}", "p": r"V_{nom}"},
+                  "ideal transformer current ratio (any circuits text); magnetising inrush not "
+                  "included")
+BLEEDER_R = _eq("bleeder.resistance", "Largest bleeder for the discharge time",
+                r"\frac{$t}{$c \cdot \ln($v / $s)}",
+                {"t": "t", "c": r"C_{max}", "v": r"V_0", "s": r"V_{safe}"},
+                "capacitor discharge V(t) = V0 exp(-t/RC) (any physics text)")
+BLEEDER_T = _eq("bleeder.time", "Discharge time to the safe voltage",
+                r"$r \cdot $c \cdot \ln($v / $s)",
+                {"r": "R", "c": r"C_{max}", "v": r"V_0", "s": r"V_{safe}"},
+                "capacitor discharge V(t) = V0 exp(-t/RC) (any physics text)")
+POWER_V2 = _eq("power.v2r_single", "Power in a resistor", r"\frac{$v^2}{$R}",
+               {"v": "V", "R": "R"}, "Joule's law")

@@ -28,6 +28,7 @@ from .spec.models import Requirements
 from .stages import (
     mains,
     model,
+    protection,
     rectifier,
     regulator_needs,
     reservoir,
@@ -526,6 +527,27 @@ def _hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]
     return out
 
 
+def _protection(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]:
+    """Fuse and bleeder, sized after the engine has given the operating and surge currents."""
+    w = ctx.spec.margins.warn_band
+    nominal = np.array([n.startswith("nominal mains, full load") for n in cr.corners.name])
+    i_sec = float(np.nanmax(np.where(nominal, cr.corner_metric("i_sec_rms"), np.nan)))
+    L.stage = "protection"
+    protection.size_protection(ctx, L, i_sec, cr.surge_i2t)
+    out = [make_check(L, "check.fuse_operating", "Fuse rating >= k_F x operating primary current",
+                      "fuse.i_pri_margin", "fuse.rating", "max", "nominal mains, full load", w,
+                      ref="F1", requirement="protection.fuse_factor")]
+    if "fuse.i2t" in L and "fuse.i2t_surge" in L:
+        out.append(make_check(L, "check.fuse_surge", "Switch-on I2t <= fuse melting I2t",
+                              "fuse.i2t_surge", "fuse.i2t", "max", "switch-on at the crest", w,
+                              ref="F1"))
+    if "bleeder.time" in L:
+        out.append(make_check(L, "check.bleeder_time", "Discharge time <= allowed time",
+                              "bleeder.time", "bleeder.t", "max", "high line, no load, C +tol",
+                              w, ref="R9", requirement="protection.discharge_time"))
+    return out
+
+
 def _monte_carlo(ctx: SizingContext, L: Ledger, cr: CornerResult) -> dict:
     if cr.samples is None:
         return {}
@@ -641,6 +663,13 @@ def _parts(ctx: SizingContext, L: Ledger) -> list[PartChoice]:
                            "ADJ", ("reg.r1",)),
                       line("R3", "resistor", v("reg.r2"), f"resistor {v('reg.r2')} 1 %, ADJ to "
                            "ground", ("reg.r2",))]
+    lines.append(line("F1", "fuse", f"{v('fuse.rating')} T",
+                      f"fuse-link, time-lag (T), {v('fuse.rating')}, rated for "
+                      f"{v('mains.v_high')} or more, in the live lead", ("fuse.rating",)))
+    if "bleeder.r" in L:
+        lines.append(line("R9", "resistor", f"{v('bleeder.r')} {v('bleeder.p_rating')}",
+                          f"bleeder resistor {v('bleeder.r')}, at least {v('bleeder.p_rating')}, "
+                          f"across C1", ("bleeder.r", "bleeder.p_rating")))
     for p_, ref in (("reg", "HS1"), ("q", "HS2")):
         if f"{p_}.theta_sa" in L:
             lines.append(line(ref, "heatsink", v(f"{p_}.theta_sa"),
@@ -685,11 +714,16 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
                                   env.ambient_min, env.ambient_max, kind=kind))
     _derived_metrics(cr, L, spec)
     checks = _engine_values(ctx, L, cr)
+    checks += _protection(ctx, L, cr)
     checks.sort(key=lambda c: ALL_CHECK_IDS.index(c.id) if c.id in ALL_CHECK_IDS else 100)
     cautions = list(STANDING) + triggered_cautions(
-        L["reservoir.v_max"], L["transformer.v_high_nl"], L["reservoir.energy"], checks)
+        L["reservoir.v_max"], L["transformer.v_high_nl"], L["reservoir.energy"], checks,
+        topology=spec.rectifier.topology,
+        dual_frequency=((spec.mains.frequency, spec.mains.also_frequency)
+                        if spec.mains.also_frequency else None))
     stages = [Stage("margins", "Design margins", "Derating factors and design ratios used below.")]
     stages += _stage_meta(spec)
+    stages.append(Stage("protection", protection.TITLE, protection.INTRO))
     stages.append(Stage("corners", "Worst-case corners (waveform engine)",
                         "Each value below is the worst over the 48 corners named in the "
                         "worst-case section, from the waveform engine; the corner is given "

@@ -27,6 +27,11 @@ DIODE_VRRM = (50.0, 100.0, 200.0, 400.0, 600.0, 800.0, 1000.0)
 BRIDGE_CURRENT_CLASSES = ((0.5, 20.0), (1.0, 30.0), (1.5, 50.0), (2.0, 60.0), (3.0, 80.0),
                           (4.0, 120.0), (6.0, 175.0), (8.0, 200.0), (10.0, 250.0))
 
+# Rated currents of miniature fuse-links, A: the Renard R10 steps used by IEC 60127 (list from
+# memory; common practice).
+FUSE_RATINGS = (0.032, 0.04, 0.05, 0.063, 0.08, 0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5,
+                0.63, 0.8, 1.0, 1.25, 1.6, 2.0, 2.5, 3.15, 4.0, 5.0, 6.3, 8.0, 10.0)
+
 # Typical load regulation of small mains transformers by VA (common practice, no source;
 # band figures from makers' notes, upper part of each band so maxima stay conservative).
 TYPICAL_REGULATION = ((1.0, 0.50), (3.0, 0.35), (5.0, 0.25), (10.0, 0.22), (15.0, 0.18),

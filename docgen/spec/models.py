@@ -59,15 +59,61 @@ class Project(Section):
     demo: bool = Field(default=False, description="Marks the file as invented demo data.")
 
 
+# Common nominal supplies: (nominal V, frequency Hz, low tolerance, high tolerance, basis).
+MAINS_PRESETS: dict[str, tuple[float, float, float, float, str]] = {
+    "230V-50Hz": (230.0, 50.0, 0.10, 0.10, "IEC 60038:2009, 230 V +/-10 %"),
+    "230V-60Hz": (230.0, 60.0, 0.10, 0.10, "IEC 60038:2009, 230 V +/-10 %"),
+    "240V-50Hz": (240.0, 50.0, 0.10, 0.10, "IEC 60038:2009 (240 V systems), +/-10 %"),
+    "220V-60Hz": (220.0, 60.0, 0.10, 0.10, "220 V systems, +/-10 % (common practice)"),
+    "120V-60Hz": (120.0, 60.0, 0.10, 0.06, "ANSI C84.1 (Range A 114-126 V), low side widened "
+                  "to -10 % for utilisation drop (common practice)"),
+    "110V-60Hz": (110.0, 60.0, 0.10, 0.10, "110 V systems, +/-10 % (common practice)"),
+    "100V-50Hz": (100.0, 50.0, 0.10, 0.10, "BSI World Electricity Supplies 1989: Japan east, "
+                  "+/-10 %"),
+    "100V-60Hz": (100.0, 60.0, 0.10, 0.10, "BSI World Electricity Supplies 1989: Japan west, "
+                  "+/-10 %"),
+}
+
+
 class Mains(Section):
+    preset: Literal[tuple(MAINS_PRESETS)] | None = Field(  # type: ignore[valid-type]
+        default=None,
+        description="A common supply that fills nominal, frequency and tolerances: "
+        + ", ".join(MAINS_PRESETS) + ". Keys given in the file override it.",
+    )
     nominal: Voltage = q(230.0, "V", "Nominal mains RMS voltage.", "IEC 60038 nominal")
     frequency: Frequency = q(50.0, "Hz", "Mains frequency.", "IEC 60038")
+    also_frequency: Frequency | None = q(
+        None, "Hz", "A second mains frequency the product must also run from (e.g. 60 Hz for a "
+        "50 Hz design); the design is sized at the lower of the two.",
+    )
     tolerance_low: Fraction = q(
         0.10, "%", "Low-line tolerance below nominal.", "IEC 60038 supply range +/-10 %"
     )
     tolerance_high: Fraction = q(
         0.10, "%", "High-line tolerance above nominal.", "IEC 60038 supply range +/-10 %"
     )
+
+    @model_validator(mode="before")
+    @classmethod
+    def _apply_preset(cls, data: Any) -> Any:
+        if isinstance(data, dict) and isinstance(data.get("preset"), str) \
+                and data["preset"] in MAINS_PRESETS:
+            nominal, freq, lo, hi, _ = MAINS_PRESETS[data["preset"]]
+            filled = {"nominal": nominal, "frequency": freq, "tolerance_low": lo,
+                      "tolerance_high": hi}
+            return {**filled, **data}
+        return data
+
+    def origin(self, key: str) -> tuple[bool, str]:
+        """(defaulted, source) of a field, telling preset values from the file's own."""
+        keys = ("nominal", "frequency", "tolerance_low", "tolerance_high")
+        if self.preset and key in keys:
+            preset_value = MAINS_PRESETS[self.preset][keys.index(key)]
+            if getattr(self, key) == preset_value:
+                return False, f"mains preset {self.preset}: {MAINS_PRESETS[self.preset][4]}"
+            return False, ""
+        return key not in self.model_fields_set, ""
 
     @model_validator(mode="after")
     def _tolerances(self) -> Mains:
@@ -353,6 +399,25 @@ class Margins(Section):
         return self
 
 
+class Protection(Section):
+    fuse_factor: PositiveFraction = q(
+        1.5, "", "Primary fuse rating over the transformer's rated primary current (use 2-2.5 "
+        "for toroids or large capacitors).", "common practice; P. Horowitz, W. Hill, The Art of "
+        "Electronics (fuse at least 50 % above the true RMS line current)",
+    )
+    fuse_part: str = Field(default="", max_length=80,
+                           description="Library part id of a fixed primary fuse.")
+    bleeder: bool | None = Field(
+        default=None,
+        description="Fit a bleeder resistor across the reservoir: true, false, or absent for "
+        "automatic (fitted when the reservoir can exceed safe_voltage).",
+    )
+    safe_voltage: Voltage = q(60.0, "V", "Voltage the reservoir must fall below after switch-off.",
+                              "IEC 60204-1 residual voltage: 60 V within 5 s (secondary copy)")
+    discharge_time: Duration = q(5.0, "s", "Time allowed to reach safe_voltage.",
+                                 "IEC 60204-1 residual voltage: 60 V within 5 s (secondary copy)")
+
+
 class Analysis(Section):
     samples: int = Field(
         default=400, ge=0, le=100_000,
@@ -387,5 +452,6 @@ class Requirements(Section):
     output: list[Output] = Field(min_length=1, max_length=1,
                                  description="The output rail (one in this version).")
     margins: Margins = Field(default_factory=Margins)
+    protection: Protection = Field(default_factory=Protection)
     analysis: Analysis = Field(default_factory=Analysis)
     parts: Parts = Field(default_factory=Parts)

@@ -47,7 +47,7 @@ def test_results_json_is_complete_and_consistent(demo_build):
         assert c["value_id"] in data["values"] and c["limit_id"] in data["values"]
         # the margin's sign agrees with the status
         assert (c["margin"] < 0) == (c["status"] == "fail")
-    assert [p["ref"] for p in data["bom"]] == ["T1", "BR1", "C1", "R1", "DZ1"]
+    assert [p["ref"] for p in data["bom"]] == ["T1", "BR1", "C1", "R1", "DZ1", "F1"]
 
 
 def test_html_is_self_contained_and_links_resolve(demo_build):
