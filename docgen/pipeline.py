@@ -359,10 +359,11 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
             "va", need, f"the engine found {fq(i, 'A')} RMS in the secondary at {where}, above "
             f"the {fq(L['transformer.i_rated'], 'A')} rating of a {fq(L['transformer.va'], 'VA')}"
             " transformer")
+    follower_starved = (kind == "follower" and "check.zener_current" in ids
+                        and worst("check.zener_current")[0] < 0)
     if not fixed_t and (short("check.headroom", "output.headroom", "min")
                         or short("check.dropout", "regulator.v_in_min_needed", "min")
-                        or (kind == "follower"
-                            and short("check.zener_current", "zener.i_min", "min"))):
+                        or follower_starved):
         from . import standards
 
         v = L["transformer.v_rated"]
@@ -370,10 +371,10 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
         changed |= ctx.floors.raise_to(
             "secondary", nxt, f"at the trough the engine found less than the required headroom "
             f"across R with a {fq(v, 'V')} secondary (winding resistance and diode drops)")
-    elif kind == "zener" and spec.output[0].series_resistor is None and short(
+    elif kind in ("zener", "follower") and spec.output[0].series_resistor is None and short(
             "check.zener_current", "zener.i_min", "min"):
         i_z, where = worst("check.zener_current")
-        i_l = L["output.i_max"]
+        i_l = L["output.i_max"] if kind == "zener" else L["q.i_b_max"]
         ceiling = L["zener.r"] * (i_l + i_z) / (i_l + L["zener.i_min"]) * 0.99
         changed |= ctx.floors.lower_to(
             "resistor_ceiling", ceiling, f"the engine found only {fq(i_z, 'A')} of zener "

@@ -253,9 +253,17 @@ def size_series(ctx: SizingContext, L: Ledger) -> None:
 
 
 def _size_follower(ctx: SizingContext, L: Ledger) -> None:
-    L.calc("q.r1_max", eq.FOLLOWER_R1, r"R_{1,max}", "ohm", "Largest base resistor",
+    L.calc("q.r1_calc", eq.FOLLOWER_R1, r"R_{1,calc}", "ohm", "Largest base resistor (hand)",
            {"v": "reservoir.valley_low", "z": "zener.v_max", "i": "q.i_r1"},
            lambda v, z, i: (v - z) / i)
+    ceiling = ctx.floor(L, "resistor_ceiling", "zener.r_ceiling", r"R_{ceil}", "ohm",
+                        "Base-resistor ceiling")
+    if ceiling:
+        L.calc("q.r1_max", eq.MIN2, r"R_{1,max}", "ohm", "Largest base resistor",
+               {"a": "q.r1_calc", "b": ceiling}, lambda a, b: min(a, b))
+    else:
+        L.calc("q.r1_max", eq.IDENT, r"R_{1,max}", "ohm", "Largest base resistor",
+               {"x": "q.r1_calc"}, lambda x: x)
     if L["q.r1_max"] <= 0:
         raise InfeasibleDesign("the capacitor trough is below the zener voltage of the "
                                "follower: a larger secondary is needed")
