@@ -2,13 +2,12 @@
 
 from __future__ import annotations
 
-import re
 from dataclasses import dataclass
 from pathlib import Path
 
 from .design import Design
 from .errors import InfeasibleDesign
-from .output import prepare_dir, write_atomic
+from .output import prepare_dir, safe_stem, write_atomic
 from .pipeline import run
 from .spec import load_requirements
 
@@ -21,12 +20,6 @@ class BuildResult:
     files: list[Path]
     design: Design | None
     reason: str = ""
-
-
-def safe_stem(path: Path) -> str:
-    """Output folder name from the spec file name; cannot climb out of the output folder."""
-    stem = re.sub(r"[^A-Za-z0-9._-]+", "-", path.stem).strip(".-")
-    return stem or "spec"
 
 
 def design_for(spec_path: Path) -> Design:

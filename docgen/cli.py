@@ -18,6 +18,8 @@ examples:
   docgen new > my-supply.toml          write a commented starter requirements file
   docgen check specs/my-supply.toml    size and check; prints failing and marginal checks
   docgen build specs/ -o out           build every spec in a folder into out/<name>/
+  docgen diff old.toml new.toml        what a requirements change did to the design
+  docgen diff spec.toml --rev HEAD     the same against the file at a git revision
 
 exit status: 0 all checks pass, 1 a check fails or the design is infeasible,
              2 invalid input or unwritable output.
@@ -236,7 +238,8 @@ def _cmd_new(args) -> int:
         with open(args.path, "x", encoding="utf-8") as fh:
             fh.write(STARTER)
     except FileExistsError:
-        raise RenderError(f"{args.path}: already exists; docgen new never overwrites a file")
+        raise RenderError(
+            f"{args.path}: already exists; docgen new never overwrites a file") from None
     except OSError as exc:
         raise RenderError(f"{args.path}: cannot write ({exc.strerror})") from None
     print(f"wrote {args.path}")

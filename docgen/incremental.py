@@ -292,7 +292,7 @@ def _result_summary(build_result) -> dict[str, Any]:
 
 
 def out_dir_for(spec: Path, out_root: Path) -> Path:
-    from .build import safe_stem
+    from .output import safe_stem
 
     return out_root / safe_stem(spec)
 

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import os
+import re
 import tempfile
 from pathlib import Path
 
@@ -41,3 +42,9 @@ def write_atomic(path: Path, data: bytes | str) -> None:
         except OSError:
             pass
         raise RenderError(f"{path}: cannot write ({exc.strerror})") from None
+
+
+def safe_stem(path: Path) -> str:
+    """Output folder name from the spec file name; cannot climb out of the output folder."""
+    stem = re.sub(r"[^A-Za-z0-9._-]+", "-", path.stem).strip(".-")
+    return stem or "spec"

@@ -11,8 +11,8 @@ from __future__ import annotations
 import math
 from collections.abc import Callable
 from dataclasses import dataclass
-from typing import Any
 from pathlib import Path
+from typing import Any
 
 import numpy as np
 
@@ -36,8 +36,8 @@ from .stages import (
     transformer,
     zener,
 )
-from .stages.series import thermal_chain
 from .stages.context import SizingContext
+from .stages.series import thermal_chain
 from .trace import Assumption, Ledger, TraceError
 from .units import format_quantity as fq
 

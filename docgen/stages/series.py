@@ -226,7 +226,7 @@ def size_series(ctx: SizingContext, L: Ledger) -> None:
            {"x": "regulator.i_in_design"}, lambda x: x)
     L.calc("regulator.i_in_max", eq.IDENT, r"I_{in,max}", "A", "Largest input current",
            {"x": "regulator.i_in_design"}, lambda x: x)
-    for tag, peak in (("low", "reservoir.v_pk_low"), ("high", "reservoir.v_pk_high")):
+    for tag in ("low", "high"):
         L.calc(f"reservoir.ripple_{tag}", eq.RIPPLE, rf"V_{{r,{'lo' if tag == 'low' else 'hi'}}}",
                "V", f"Ripple at {tag} line", {"i": "regulator.i_in_design",
                                               "f": "mains.ripple_freq", "c": "reservoir.c_min"},
