@@ -3,8 +3,8 @@
 from __future__ import annotations
 
 import base64
-from importlib import resources
 from functools import lru_cache
+from importlib import resources
 from typing import Any
 
 from ..design import Design

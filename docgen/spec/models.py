@@ -20,12 +20,12 @@ from .quantities import (
     Frequency,
     Inductance,
     NonNegResistance,
-    Power,
     PositiveCurrent,
     PositiveFraction,
+    Power,
     Resistance,
-    Temperature,
     Tempco,
+    Temperature,
     Voltage,
 )
 
