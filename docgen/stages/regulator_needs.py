@@ -6,6 +6,7 @@ from .. import equations as eq
 from ..errors import InfeasibleDesign
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
+from .series import record_output
 
 TITLE = "Regulator requirements"
 INTRO = ("The zener shunt regulator needs a minimum input voltage at the ripple trough: the "
@@ -41,22 +42,10 @@ def size_regulator_needs(ctx: SizingContext, L: Ledger) -> None:
     z = out.zener
     explicit_out = out.model_fields_set
     explicit_z = z.model_fields_set
-    env = spec.environment
-    L.given("output.v_nom", r"V_{out}", out.voltage, "V", "Nominal output voltage")
-    L.given("output.tolerance", r"t_{out}", out.tolerance, "%", "Output voltage tolerance",
-            defaulted="tolerance" not in explicit_out)
-    L.given("output.i_max", r"I_{L,max}", out.load_max, "A", "Maximum load current")
-    L.given("output.i_min", r"I_{L,min}", out.load_min, "A", "Minimum load current (connected)",
-            defaulted="load_min" not in explicit_out)
-    L.given("output.ripple_max", r"V_{r,out,max}", out.ripple_max, "V",
-            "Output ripple limit (peak to peak)")
+    record_output(ctx, L)
     L.given("output.headroom", r"V_{hr}", out.headroom, "V",
             "Headroom across the series resistor at the trough",
             defaulted="headroom" not in explicit_out)
-    L.given("env.t_max", r"T_{A,max}", env.ambient_max, "degC", "Highest ambient temperature",
-            defaulted="ambient_max" not in env.model_fields_set)
-    L.given("env.t_min", r"T_{A,min}", env.ambient_min, "degC", "Lowest ambient temperature",
-            defaulted="ambient_min" not in env.model_fields_set)
     vz = z.voltage if z.voltage is not None else out.voltage
     part = _zener_part(ctx, L, vz)
     if part is not None:

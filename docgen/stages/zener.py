@@ -102,10 +102,6 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
            "Regulator input current at high line",
            {"v": "reservoir.v_mean_high", "z": "zener.v_min", "R": "zener.r"},
            lambda v, z, R: (v - z) / R)
-    disconnect = out.load_can_disconnect
-    L.given("output.i_min_worst", r"I_{L,least}", 0.0 if disconnect else out.load_min, "A",
-            "Least load current the zener must absorb",
-            source="load can be disconnected" if disconnect else "load_min")
     L.calc("zener.i_z_max", eq.DIFF2, r"I_{Z,max}", "A",
            "Zener current at high line, least load",
            {"a": "regulator.i_in_max", "b": "output.i_min_worst"}, lambda a, b: a - b)
@@ -175,12 +171,6 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
     else:
         L.given("zener.r_tol", r"t_R", out.resistor_tolerance, "%", "Series-resistor tolerance",
                 defaulted="resistor_tolerance" not in out.model_fields_set)
-
-    # Output voltage window.
-    L.calc("output.v_upper_limit", eq.BOUND_HIGH, r"V_{out,hi,lim}", "V", "Output upper limit",
-           {"x": "output.v_nom", "t": "output.tolerance"}, lambda x, t: x * (1 + t))
-    L.calc("output.v_lower_limit", eq.BOUND_LOW, r"V_{out,lo,lim}", "V", "Output lower limit",
-           {"x": "output.v_nom", "t": "output.tolerance"}, lambda x, t: x * (1 - t))
 
 
 def _with_floor(ctx: SizingContext, L: Ledger, name: str, need_id: str, floor_id: str,
