@@ -520,12 +520,17 @@ def _hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]
         L.calc("reservoir.life", eq.CAP_LIFE, r"L_C", "h", "Capacitor life expectancy",
                {"l": "reservoir.life_rated", "a": "reservoir.life_temp", "t": "reservoir.t_core",
                 "m": "reservoir.life_cap"},
-               lambda l, a, t, m: min(l * 2 ** ((a - t) / 10.0), m))
+               lambda l, a, t, m: capacitor_life(l, a, t, m))
         out.append(make_check(L, "check.cap_life", "Capacitor life >= required life",
                               "reservoir.life", "env.required_life", "min",
                               "hottest ambient, largest ripple current", w, ref="C1",
                               requirement="environment.required_life"))
     return out
+
+
+def capacitor_life(rated: float, rated_temp_c: float, temp_c: float, cap: float) -> float:
+    """The 10-degree rule: life doubles for every 10 K below the rated temperature, capped."""
+    return min(rated * 2 ** ((rated_temp_c - temp_c) / 10.0), cap)
 
 
 def _protection(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]:
