@@ -165,3 +165,16 @@ def test_killed_build_leaves_previous_documents_intact(tmp_path):
     leftovers = [p.name for p in target.iterdir() if p.name.endswith(".tmp")]
     # a killed writer may leave its private temporary file, but never under a real output name
     assert all(n.startswith(".") for n in leftovers)
+
+
+def test_parts_library_outside_the_project_or_remote_is_refused(tmp_path, capsys):
+    project = tmp_path / "project"
+    (project / ".git").mkdir(parents=True)  # the enclosing git work tree is the project
+    outside = tmp_path / "elsewhere.toml"
+    outside.write_text("schema = 1\n")
+    for ref in ("../elsewhere.toml", "https://example.invalid/parts.toml", "/etc/passwd"):
+        spec = project / "spec.toml"
+        spec.write_text(DEMO_STANDALONE + f'\n[parts]\nlibrary = "{ref}"\n')
+        assert main(["check", str(spec)]) == 2
+        err = capsys.readouterr().err
+        assert "parts.library" in err and "Traceback" not in err
