@@ -273,18 +273,23 @@ def prefetch(formulas: Iterable[str]) -> int:
 
 
 def _typeset_in_workers(missing: list[str], workers: int):
+    """Typeset ``missing`` split over this process and ``workers - 1`` forked children."""
     import multiprocessing
     from concurrent.futures import ProcessPoolExecutor
 
-    # Interleaved chunks: long and short formulas are spread evenly over the workers.
-    chunks = [missing[k::workers] for k in range(workers)]
+    # The first formula here, before forking: the children inherit a ready parser and fonts.
+    first = typeset(missing[0])
+    rest = missing[1:]
+    # Interleaved chunks: long and short formulas are spread evenly; chunk 0 stays here.
+    chunks = [rest[k::workers] for k in range(workers)]
     try:
-        with ProcessPoolExecutor(max_workers=workers,
+        with ProcessPoolExecutor(max_workers=workers - 1,
                                  mp_context=multiprocessing.get_context("fork")) as pool:
-            done = list(pool.map(_typeset_chunk, chunks))
+            futures = [pool.submit(_typeset_chunk, chunk) for chunk in chunks[1:]]
+            done = [_typeset_chunk(chunks[0])] + [f.result() for f in futures]
     except (OSError, RuntimeError):  # no processes to be had: typeset here instead
         return None
-    results: list[tuple[str, float, float] | None] = [None] * len(missing)
+    results: list[tuple[str, float, float] | None] = [None] * len(rest)
     for k, chunk in enumerate(done):
         results[k::workers] = chunk
-    return results
+    return [first, *results]
