@@ -35,27 +35,40 @@ def schematic_for(design: Design) -> str:
     from .schematic import OutputDrawing, SchematicDrawing, schematic_svg
 
     parts = {p.ref: p for p in design.parts}
-    out = design.requirements.output[0]
-    mains = design.requirements.mains
+    spec = design.requirements
+    mains = spec.mains
+    topology = spec.rectifier.topology
 
     def label(ref: str) -> str:
         p = parts[ref]
         return f"{p.value_text}" + (f" ({p.part_id})" if p.part_id else "")
 
-    topology = design.requirements.rectifier.topology
-    rect = "BR1" if topology == "bridge" else "D1"
+    shared = {"T1", "F1", "R9", "R10", "BR1", "D1", "D3"}
+    neg_refs = {"C2", "R2", "DZ2", "U2", "Q2", "R4", "R5"}
+    outputs = []
+    for out in spec.output:
+        negative = out.polarity == "negative"
+        refs = [r for r in parts if r not in shared and not r.startswith("HS")
+                and ((r in neg_refs) == negative or topology != "split")]
+        outputs.append(OutputDrawing(
+            name=out.name, regulator=DRAWN_AS[out.regulator],
+            polarity="-" if negative else "+", labels={r: label(r) for r in refs},
+            v_out_text=f"{'-' if negative else ''}{out.voltage:g} V, "
+                       f"{out.load_max * 1e3:g} mA"))
+    if topology == "split":
+        rect = f"D1-D4 {label('D1')}"
+    elif topology == "bridge":
+        rect = f"BR1 {label('BR1')}"
+    else:
+        rect = f"D1 {label('D1')}"
     drawing = SchematicDrawing(
         topology=topology,
         mains_text=f"{mains.nominal:g} V {mains.frequency:g} Hz",
         transformer=f"T1 {label('T1')}",
         fuse=f"F1 {label('F1')}" if "F1" in parts else "",
         bleeder=f"R9 {label('R9')}" if "R9" in parts else "",
-        rectifier=f"{rect} {label(rect)}",
-        outputs=(OutputDrawing(
-            name=out.name, regulator=DRAWN_AS[out.regulator],
-            labels={ref: label(ref) for ref in parts if ref not in ("T1", rect, "F1", "R9")
-                    and not ref.startswith("HS")},
-            v_out_text=f"{out.voltage:g} V, {out.load_max * 1e3:g} mA"),),
+        rectifier=rect,
+        outputs=tuple(outputs),
     )
     return schematic_svg(drawing)
 
@@ -76,6 +89,11 @@ def draw_plots(design: Design) -> dict[str, str]:
     if "nominal" in design.waveforms:
         plots["waveforms_nominal"] = figure_svg(waveform_plot(
             design.waveforms["nominal"], "Nominal mains, full load", limits))
+    if "neg_trough" in design.waveforms:
+        plots["waveforms_trough_neg"] = figure_svg(waveform_plot(
+            design.waveforms["neg_trough"], "Negative rail: the trough corner (magnitudes)",
+            {"v_out_hi": v["neg.output.v_upper_limit"].value,
+             "v_out_lo": v["neg.output.v_lower_limit"].value}))
     if design.samples:
         candidates = [
             {"metric": "v_out_max", "title": "Highest output voltage", "unit": "V",

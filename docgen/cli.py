@@ -261,6 +261,12 @@ def main(argv: list[str] | None = None) -> int:
     except KeyboardInterrupt:
         print("docgen: interrupted", file=sys.stderr)
         return 130
+    except BrokenPipeError:
+        # the reader (e.g. `| head`) went away; stop quietly
+        import os
+
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+        return 1
 
 
 if __name__ == "__main__":  # pragma: no cover

@@ -397,3 +397,6 @@ BLEEDER_T = _eq("bleeder.time", "Discharge time to the safe voltage",
                 "capacitor discharge V(t) = V0 exp(-t/RC) (any physics text)")
 POWER_V2 = _eq("power.v2r_single", "Power in a resistor", r"\frac{$v^2}{$R}",
                {"v": "V", "R": "R"}, "Joule's law")
+RSS = _eq("sum.quadrature", "Sum in quadrature (RMS of currents in turn)",
+          r"\sqrt{$a^2 + $b^2}", {"a": "a", "b": "b"},
+          "RMS of two current pulse trains that do not overlap in time (definition of RMS)")

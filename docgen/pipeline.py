@@ -41,7 +41,10 @@ from .stages.series import thermal_chain
 from .trace import Assumption, Ledger, TraceError
 from .units import format_quantity as fq
 
-MAX_PASSES = 6
+MAX_PASSES = 8
+# Above this regulation a headroom shortfall is met with a larger transformer, not a higher
+# secondary (common practice: small transformers lose their headroom in winding resistance).
+STIFF_REGULATION = 0.15
 RECT_TEXT = {
     "bridge": "bridge rectifier, V_RRM at least {v}, I_F(AV) at least {i}, I_FSM at least {s}",
     "center-tap": "2 rectifier diodes, V_RRM at least {v}, I_F(AV) together at least {i} "
@@ -367,10 +370,21 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
         from . import standards
 
         v = L["transformer.v_rated"]
-        nxt = next((s for s in standards.SECONDARY_VOLTAGES if s > v * (1 + 1e-9)), v * 1.25)
-        changed |= ctx.floors.raise_to(
-            "secondary", nxt, f"at the trough the engine found less than the required headroom "
-            f"across R with a {fq(v, 'V')} secondary (winding resistance and diode drops)")
+        va = L["transformer.va"]
+        stiffer = next((s for s in standards.TRANSFORMER_VA if s > va * (1 + 1e-9)), None)
+        if L["transformer.regulation"] > STIFF_REGULATION and stiffer is not None:
+            # A small transformer's winding resistance eats the headroom: a larger core with
+            # better regulation helps without the extra heat of a higher secondary.
+            changed |= ctx.floors.raise_to(
+                "va", stiffer, f"at the trough the engine found too little headroom with a "
+                f"{fq(va, 'VA')} transformer whose regulation is "
+                f"{fq(L['transformer.regulation'], '%')} (winding resistance)")
+        else:
+            nxt = next((s for s in standards.SECONDARY_VOLTAGES if s > v * (1 + 1e-9)),
+                       v * 1.25)
+            changed |= ctx.floors.raise_to(
+                "secondary", nxt, f"at the trough the engine found less than the required "
+                f"headroom with a {fq(v, 'V')} secondary (winding resistance and diode drops)")
     elif kind in ("zener", "follower") and spec.output[0].series_resistor is None and short(
             "check.zener_current", "zener.i_min", "min"):
         i_z, where = worst("check.zener_current")
@@ -398,6 +412,13 @@ def _bumps(ctx: SizingContext, L: Ledger, cr: CornerResult) -> bool:
         changed |= ctx.floors.raise_to(
             "resistor_power", p / spec.margins.resistor_power_derating / (1 - band),
             f"the engine found {fq(p, 'W')} in the series resistor at {where}")
+    for check_id, metric in (("check.regulator_junction", "p_reg"),
+                             ("check.transistor_junction", "p_q")):
+        if short(check_id, "margins.t_j_design", "max") and metric in cr.metrics:
+            p = float(np.nanmax(cr.corner_metric(metric)))
+            changed |= ctx.floors.raise_to(
+                "heat_power", p / (1 - band), f"the engine found {fq(p, 'W')} dissipated in "
+                "the regulator at the hottest corner, more than the hand estimate")
     if not spec.rectifier.part and short("check.bridge_current", "rect.i_allowed", "max"):
         i, where = worst("check.bridge_current")
         changed |= ctx.floors.raise_to(
@@ -702,8 +723,17 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     ``samples`` overrides the Monte Carlo sample count of the file (0 turns it off).
     Raises InfeasibleDesign when no design of the chosen kind meets the requirements.
     """
-    spec = loaded.requirements
-    ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=_library(loaded))
+    library = _library(loaded)
+    if loaded.requirements.rectifier.topology == "split":
+        from .split import run_split
+
+        return run_split(loaded, library, samples)
+    return run_rail(loaded, loaded.requirements, library, samples)
+
+
+def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | None) -> Design:
+    """One rail: a single output fed by its own rectifier and reservoir."""
+    ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=library)
     n_samples = spec.analysis.samples if samples is None else samples
     env = spec.environment
     kind = spec.output[0].regulator

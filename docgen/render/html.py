@@ -93,6 +93,8 @@ FIGURES = {
                          "tolerance, zener high, resistor high. Secondary voltage and current, "
                          "capacitor voltage, one diode's current pulses, output voltage."),
     "waveforms_nominal": ("waveforms", "Nominal mains, full load, nominal-side corner."),
+    "waveforms_trough_neg": ("waveforms", "Negative rail at its trough corner, shown as "
+                             "magnitudes."),
     "monte_carlo": ("monte-carlo", "Monte Carlo distributions; dashed lines are the limits."),
 }
 

@@ -174,10 +174,12 @@ class Transformer(Section):
 
 
 class Rectifier(Section):
-    topology: Literal["bridge", "center-tap", "half-wave"] = Field(
+    topology: Literal["bridge", "center-tap", "half-wave", "split"] = Field(
         default="bridge",
         description="Rectifier topology: bridge, center-tap (full-wave from a center-tapped "
-        "winding; the transformer secondary is then the whole winding) or half-wave.",
+        "winding; the transformer secondary is then the whole winding), half-wave, or split "
+        "(a bridge on a center-tapped winding feeding a positive and a negative reservoir; two "
+        "[[output]] tables, one of each polarity).",
     )
     diode_drop: Voltage = q(
         1.0, "V", "Forward drop of one diode at the charging-current peaks.",
@@ -306,6 +308,11 @@ class PassTransistor(Section):
 
 class Output(Section):
     name: str = Field(min_length=1, max_length=80, description="Name of the output rail.")
+    polarity: Literal["positive", "negative"] = Field(
+        default="positive",
+        description="Polarity of the rail (split supplies: one of each); voltages are given as "
+        "magnitudes.",
+    )
     voltage: Voltage = q(..., "V", "Nominal output voltage.")
     tolerance: PositiveFraction = q(0.10, "%", "Allowed output deviation, +/-.", "common practice")
     load_min: Current = q(0.0, "A", "Minimum load current while connected.")
@@ -449,9 +456,24 @@ class Requirements(Section):
     transformer: Transformer = Field(default_factory=Transformer)
     rectifier: Rectifier = Field(default_factory=Rectifier)
     reservoir: Reservoir = Field(default_factory=Reservoir)
-    output: list[Output] = Field(min_length=1, max_length=1,
-                                 description="The output rail (one in this version).")
+    output: list[Output] = Field(min_length=1, max_length=2,
+                                 description="The output rail; two for a split supply.")
     margins: Margins = Field(default_factory=Margins)
     protection: Protection = Field(default_factory=Protection)
     analysis: Analysis = Field(default_factory=Analysis)
     parts: Parts = Field(default_factory=Parts)
+
+    @model_validator(mode="after")
+    def _rails(self) -> Requirements:
+        split = self.rectifier.topology == "split"
+        polarities = sorted(o.polarity for o in self.output)
+        if split and polarities != ["negative", "positive"]:
+            raise ValueError("a split supply needs two [[output]] tables, one with polarity = "
+                             "\"positive\" and one with polarity = \"negative\"")
+        if not split and len(self.output) != 1:
+            raise ValueError("only a split supply (rectifier.topology = \"split\") has two "
+                             "outputs; give one [[output]] table")
+        if not split and polarities != ["positive"]:
+            raise ValueError("a single-rail supply is drawn positive; set polarity = "
+                             "\"positive\" (or use rectifier.topology = \"split\")")
+        return self

@@ -26,6 +26,7 @@ class Floors:
     zener_power: float = 0.0
     resistor_power: float = 0.0
     bridge_current: float = 0.0
+    heat_power: float = 0.0  # dissipation the heat sink is sized for
     resistor_ceiling: float = math.inf  # an upper limit: lowered, never raised
     reasons: dict[str, str] = field(default_factory=dict)
 

@@ -328,20 +328,28 @@ def _thermal(ctx: SizingContext, L: Ledger, p: str, ref: str, what: str) -> None
     L.given("margins.t_j_design", r"T_{J,design}", m.junction_max, "degC",
             "Highest junction temperature allowed by the design",
             defaulted="junction_max" not in m.model_fields_set)
+    floor = ctx.floor(L, "heat_power", f"{p}.p_floor", r"P_{floor}", "W",
+                      "Dissipation floor for the heat budget")
+    if floor:
+        L.calc(f"{p}.p_design", eq.MAX2, r"P_{design}", "W", "Dissipation the heat budget uses",
+               {"a": f"{p}.p_hand", "b": floor}, lambda a, b: max(a, b))
+    else:
+        L.calc(f"{p}.p_design", eq.IDENT, r"P_{design}", "W", "Dissipation the heat budget uses",
+               {"x": f"{p}.p_hand"}, lambda x: x)
     L.calc(f"{p}.t_j_bare", eq.JUNCTION_BARE, r"T_{J,bare}", "degC",
            f"Junction temperature of the {what} without a heat sink",
-           {"t": "env.t_max", "p": f"{p}.p_hand", "r": f"{p}.theta_ja"},
+           {"t": "env.t_max", "p": f"{p}.p_design", "r": f"{p}.theta_ja"},
            lambda t, p, r: t + p * r)
     if L[f"{p}.t_j_bare"] <= L["margins.t_j_design"]:
         return
     L.calc(f"{p}.theta_sa_needed", eq.HEATSINK_NEEDED, r"\theta_{SA,req}", "K/W",
            f"Heat-sink thermal resistance needed for the {what}",
-           {"j": "margins.t_j_design", "t": "env.t_max", "p": f"{p}.p_hand",
+           {"j": "margins.t_j_design", "t": "env.t_max", "p": f"{p}.p_design",
             "c": f"{p}.theta_jc", "s": f"{p}.theta_cs"},
            lambda j, t, p, c, s: (j - t) / p - c - s)
     if L[f"{p}.theta_sa_needed"] <= 0.05:
         raise InfeasibleDesign(
-            f"the {what} dissipates {L[f'{p}.p_hand']:.1f} W: no heat sink keeps its junction "
+            f"the {what} dissipates {L[f'{p}.p_design']:.1f} W: no heat sink keeps its junction "
             f"below {L['margins.t_j_design']:g} degC at {L['env.t_max']:g} degC ambient")
     sink = None
     if ctx.library is not None:

@@ -29,7 +29,23 @@ def test_demo_spec_builds_without_failing_checks(spec, tmp_path):
 def test_demo_specs_cover_every_topology_and_regulator():
     kinds = {(load_requirements(s).requirements.rectifier.topology,
               load_requirements(s).requirements.output[0].regulator) for s in SPECS}
-    assert {t for t, _ in kinds} == {"bridge", "center-tap", "half-wave"}
+    assert {t for t, _ in kinds} == {"bridge", "center-tap", "half-wave", "split"}
     assert {r for _, r in kinds} >= {"zener", "follower", "three-terminal", "adjustable"}
     presets = {load_requirements(s).requirements.mains.preset for s in SPECS}
     assert "120V-60Hz" in presets
+
+
+def test_split_supply_has_both_rails_and_one_shared_transformer(tmp_path):
+    spec = ROOT / "specs" / "audio-preamp-split-15v.toml"
+    result = build_one(spec, tmp_path, pdf=False)
+    design = result.design
+    refs = [p.ref for p in design.parts]
+    assert refs.count("T1") == 1 and "U1" in refs and "U2" in refs and "C2" in refs
+    # each half winding carries both rails' pulses in turn: RMS currents add in quadrature
+    v = design.values
+    assert v["split.i_sec_rms"].value ** 2 == pytest.approx(
+        v["split.i_pos"].value ** 2 + v["split.i_neg"].value ** 2)
+    assert v["transformer.va"].value == v["neg.transformer.va"].value
+    assert any(c.id.startswith("neg.check.") for c in design.checks)
+    svg = (result.out_dir / "plots" / "schematic.svg").read_text()
+    assert "-15 V" in svg and "+15 V" in svg

@@ -1,0 +1,177 @@
+"""Split supplies: a bridge on a center-tapped winding feeding a positive and a negative rail.
+
+Each rail is a center-tap full-wave rectifier of its half winding with its own reservoir and
+regulator, so each is sized and verified by the single-rail pipeline. The transformer is shared:
+after a first pass it is chosen for the larger half-winding voltage and for the combined winding
+current (each half winding carries the positive rail's pulses in one half-cycle and the negative
+rail's in the other, so the RMS currents add in quadrature), and both rails are run again with it.
+The two results are merged into one Design; the negative rail's values carry the prefix "neg.".
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+
+from . import equations as eq
+from . import standards
+from .checks import make_check, overall_status
+from .design import Check, Design, Stage
+from .errors import InfeasibleDesign
+from .spec import LoadedSpec
+from .spec.models import Requirements
+from .trace import Assumption, Ledger
+
+NEG = "neg."
+# Designators of the negative rail (the positive rail keeps the single-rail ones).
+REF_MAP = {"C1": "C2", "R1": "R2", "DZ1": "DZ2", "U1": "U2", "Q1": "Q2", "HS1": "HS3",
+           "HS2": "HS4", "R2": "R4", "R3": "R5", "D1": "D3", "R9": "R10"}
+
+SPLIT_ASSUMPTION = Assumption(
+    "assume.split",
+    "Each rail is simulated as a center-tap full-wave rectifier of its half winding. The two "
+    "rails charge in the same half-cycles through the shared primary; the extra primary drop "
+    "this causes is not coupled between the rails in the model (the winding resistance of each "
+    "half comes from the transformer's regulation).",
+    "docgen model; common practice",
+)
+
+
+def _rail_spec(spec: Requirements, index: int, transformer=None) -> Requirements:
+    rect = spec.rectifier.model_copy(update={"topology": "center-tap"})
+    update = {"rectifier": rect, "output": [spec.output[index]]}
+    if transformer is not None:
+        update["transformer"] = transformer
+    return spec.model_copy(update=update)
+
+
+def _shared_transformer(spec: Requirements, a: Design, b: Design, library):
+    """A transformer both rails can share: the larger half voltage, the combined current."""
+    t = spec.transformer
+    if t.part or t.secondary is not None:
+        return t
+    band = spec.margins.warn_band
+    v = max(a.values["transformer.v_rated"].value, b.values["transformer.v_rated"].value)
+    i_tot = math.hypot(a.values["engine.transformer_current"].value,
+                       b.values["engine.transformer_current"].value)
+    va_need = max(v * i_tot / (1 - band), a.values["transformer.va"].value,
+                  b.values["transformer.va"].value)
+    if library is not None:
+        from .parts.select import select_transformer
+
+        sel = select_transformer(library.transformers, secondary_voltage=v / 2, va=va_need,
+                                 center_tapped=True, primary_voltage=spec.mains.nominal)
+        if sel.part is None:
+            raise InfeasibleDesign(f"no transformer in the parts library can feed both rails: "
+                                   f"{sel.reason}")
+        return t.model_copy(update={"part": sel.part.id})
+    try:
+        va = standards.next_at_or_above(va_need, standards.TRANSFORMER_VA)
+    except standards.NoStandardValue:
+        raise InfeasibleDesign(f"both rails together need {va_need:.0f} VA, above the largest "
+                               "standard transformer") from None
+    return t.model_copy(update={"secondary": v, "va": va,
+                                "regulation": standards.typical_regulation(va)})
+
+
+def _prefixed(tv, stage_prefix: str = "neg:"):
+    return dataclasses.replace(tv, id=NEG + tv.id, inputs=tuple(NEG + i for i in tv.inputs),
+                               stage=stage_prefix + tv.stage)
+
+
+def _check_neg(c: Check) -> Check:
+    return dataclasses.replace(c, id=NEG + c.id, title="(- rail) " + c.title,
+                               value_id=NEG + c.value_id, limit_id=NEG + c.limit_id,
+                               ref=REF_MAP.get(c.ref, c.ref))
+
+
+def _shared_note(design: Design, note: str) -> None:
+    for vid in ("transformer.v_rated", "transformer.va", "transformer.regulation"):
+        if vid in design.values:
+            design.values[vid] = dataclasses.replace(design.values[vid], source=note)
+
+
+def run_split(loaded: LoadedSpec, library, samples: int | None) -> Design:
+    from .pipeline import run_rail
+
+    spec = loaded.requirements
+    ipos = next(i for i, o in enumerate(spec.output) if o.polarity == "positive")
+    ineg = 1 - ipos
+    a = run_rail(loaded, _rail_spec(spec, ipos), library, 0)
+    b = run_rail(loaded, _rail_spec(spec, ineg), library, 0)
+    shared = _shared_transformer(spec, a, b, library)
+    a = run_rail(loaded, _rail_spec(spec, ipos, shared), library, samples)
+    b = run_rail(loaded, _rail_spec(spec, ineg, shared), library, samples)
+    fixed = bool(spec.transformer.part) or spec.transformer.secondary is not None
+    if not fixed:
+        note = "shared by both rails: the larger half-winding voltage, the combined current"
+        _shared_note(a, note)
+        _shared_note(b, note)
+    return _merge(loaded, spec, a, b)
+
+
+def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design) -> Design:
+    L = Ledger()
+    L.stage = "split"
+    L.given("split.i_pos", r"I_{+}", a.values["engine.transformer_current"].value, "A",
+            "Half-winding RMS current from the positive rail (engine)",
+            source="positive rail, worst nominal corner")
+    L.given("split.i_neg", r"I_{-}", b.values["engine.transformer_current"].value, "A",
+            "Half-winding RMS current from the negative rail (engine)",
+            source="negative rail, worst nominal corner")
+    L.calc("split.i_sec_rms", eq.RSS, r"I_{half,rms}", "A",
+           "Half-winding RMS current, both rails", {"a": "split.i_pos", "b": "split.i_neg"},
+           lambda a, b: math.hypot(a, b))
+    L.given("split.i_rated", r"I_{rated}", a.values["transformer.i_rated"].value, "A",
+            "Rated half-winding current of the shared transformer",
+            source="transformer rating (VA / whole winding voltage)")
+    combined = make_check(L, "check.transformer_current", "Half-winding RMS current (both "
+                          "rails) <= rated current", "split.i_sec_rms", "split.i_rated", "max",
+                          "nominal mains, full load on both rails", spec.margins.warn_band,
+                          ref="T1")
+    values = dict(a.values)
+    values.update(L.values)
+    values.update({NEG + k: _prefixed(v) for k, v in b.values.items()})
+    checks = [dataclasses.replace(c, title="(+ rail) " + c.title) for c in a.checks
+              if c.id != "check.transformer_current"]
+    checks.append(combined)
+    checks += [_check_neg(c) for c in b.checks
+               if c.id not in ("check.transformer_current", "check.fuse_operating",
+                               "check.fuse_surge")]
+    stages = [s for s in a.stages]
+    stages.insert(1, Stage("split", "Shared transformer of the split supply",
+                           "Both rails draw from the same center-tapped winding: each half "
+                           "carries the positive rail's charging pulses in one half-cycle and "
+                           "the negative rail's in the other, so their RMS currents add in "
+                           "quadrature."))
+    # The negative rail's stages follow in full, so every input a calculation links to has
+    # its place in the document.
+    stages += [Stage("neg:" + s.id, "Negative rail: " + s.title, s.intro) for s in b.stages]
+    parts = [dataclasses.replace(p, description=p.description + " (positive rail)")
+             if p.ref not in ("T1", "F1") else p for p in a.parts]
+    parts += [dataclasses.replace(p, ref=REF_MAP.get(p.ref, p.ref),
+                                  description=p.description + " (negative rail)",
+                                  value_ids=tuple(NEG + i for i in p.value_ids))
+              for p in b.parts if p.ref not in ("T1", "F1")]
+    seen: set[str] = set()
+    cautions = []
+    for c in a.cautions + b.cautions:
+        if c.id not in seen:
+            seen.add(c.id)
+            cautions.append(c)
+    assumptions = list(a.assumptions) + [SPLIT_ASSUMPTION] + [
+        dataclasses.replace(x, id=NEG + x.id, text="Negative rail: " + x.text)
+        for x in b.assumptions if x.id.startswith("assume.raised.")]
+    waveforms = dict(a.waveforms)
+    waveforms.update({"neg_" + k: v for k, v in b.waveforms.items()})
+    corners = [{**r, "name": "+ rail: " + r["name"]} for r in a.corners]
+    corners += [{**r, "name": "- rail: " + r["name"]} for r in b.corners]
+    monte_carlo = dict(a.monte_carlo)
+    if b.monte_carlo:
+        monte_carlo["negative_rail"] = b.monte_carlo
+    return dataclasses.replace(
+        a, requirements=spec, stages=stages, values=values,
+        equations={**a.equations, **b.equations, **L.equations}, checks=checks, parts=parts,
+        assumptions=assumptions, cautions=cautions, status=overall_status(checks),
+        waveforms=waveforms, corners=corners, monte_carlo=monte_carlo,
+        spec_path=str(loaded.path))
