@@ -169,5 +169,12 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
 
 
 def render_html(design: Design, plots: dict[str, str]) -> str:
+    from .mathsvg import prefetch
+
+    # Typeset every formula up front: cached ones come from memory or disk, the rest in
+    # parallel processes, instead of one by one while the template renders.
+    formulas = [v.symbol for v in design.values.values()]
+    formulas += [f for v in design.values.values() for f in (v.latex, v.substituted) if f]
+    prefetch(formulas)
     css = environment().loader.get_source(environment(), "report.css")[0]
     return environment().get_template("report.html.j2").render(css=css, **context(design, plots))
