@@ -97,3 +97,13 @@ def require(selection: Any, what: str) -> Any:
     if selection.part is None:
         raise InfeasibleDesign(f"no {what} in the parts library fits: {selection.reason}")
     return selection.part
+
+
+def record_fields(L: Ledger, model: Any, rows: tuple[tuple[str, str, str, str, str], ...]) -> None:
+    """Record fields of a requirements section as traced inputs, marking the defaulted ones.
+
+    Each row is (value id, symbol, field name, unit, title).
+    """
+    for value_id, symbol, attr, unit, title in rows:
+        L.given(value_id, symbol, getattr(model, attr), unit, title,
+                defaulted=attr not in model.model_fields_set)

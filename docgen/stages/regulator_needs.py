@@ -5,7 +5,7 @@ from __future__ import annotations
 from .. import equations as eq
 from ..errors import InfeasibleDesign
 from ..trace import Ledger
-from .context import Pick, SizingContext, require
+from .context import Pick, SizingContext, record_fields, require
 from .series import record_output
 
 TITLE = "Regulator requirements"
@@ -64,16 +64,13 @@ def size_regulator_needs(ctx: SizingContext, L: Ledger) -> None:
         L.given("zener.v_nom", r"V_Z", vz, "V", "Zener voltage (nominal)",
                 defaulted=z.voltage is None,
                 source="" if z.voltage else "equal to the output voltage")
-        L.given("zener.tol", r"t_Z", z.tolerance, "%", "Zener voltage tolerance",
-                defaulted="tolerance" not in explicit_z)
-        L.given("zener.tempco", r"\alpha_Z", z.tempco, "%/degC", "Zener temperature coefficient",
-                defaulted="tempco" not in explicit_z)
-        L.given("zener.i_zk", r"I_{ZK}", z.knee_current, "A", "Zener knee current",
-                defaulted="knee_current" not in explicit_z)
-        L.given("zener.r_z", r"r_z", z.dynamic_resistance, "ohm", "Zener dynamic resistance",
-                defaulted="dynamic_resistance" not in explicit_z)
-        L.given("zener.i_zt", r"I_{ZT}", z.test_current, "A", "Zener test current",
-                defaulted="test_current" not in explicit_z)
+        record_fields(L, z, (
+            ("zener.tol", r"t_Z", "tolerance", "%", "Zener voltage tolerance"),
+            ("zener.tempco", r"\alpha_Z", "tempco", "%/degC", "Zener temperature coefficient"),
+            ("zener.i_zk", r"I_{ZK}", "knee_current", "A", "Zener knee current"),
+            ("zener.r_z", r"r_z", "dynamic_resistance", "ohm", "Zener dynamic resistance"),
+            ("zener.i_zt", r"I_{ZT}", "test_current", "A", "Zener test current"),
+        ))
     L.given("zener.k_zk", r"k_{ZK}", z.min_current_factor, "",
             "Minimum zener current as a multiple of I_ZK",
             defaulted="min_current_factor" not in explicit_z)

@@ -12,7 +12,7 @@ from .. import equations as eq
 from ..errors import InfeasibleDesign
 from ..parts.eseries import preferred
 from ..trace import Ledger
-from .context import Pick, SizingContext
+from .context import Pick, SizingContext, record_fields
 
 TITLE = "Regulator"
 
@@ -160,29 +160,22 @@ def _follower_needs(ctx: SizingContext, L: Ledger) -> None:
     out = spec.output[0]
     z = out.zener
     q = out.transistor
-    ex = q.model_fields_set
-    L.given("q.v_be", r"V_{BE}", q.v_be, "V", "Base-emitter voltage", defaulted="v_be" not in ex)
-    L.given("q.h_fe", r"\beta_{min}", q.h_fe_min, "", "Least current gain",
-            defaulted="h_fe_min" not in ex)
-    L.given("q.t_j_max", r"T_{J,max}", q.t_j_max, "degC", "Maker's junction limit",
-            defaulted="t_j_max" not in ex)
-    L.given("q.theta_jc", r"\theta_{JC}", q.theta_jc, "K/W", "Junction-to-case",
-            defaulted="theta_jc" not in ex)
-    L.given("q.theta_ja", r"\theta_{JA}", q.theta_ja, "K/W", "Junction-to-ambient",
-            defaulted="theta_ja" not in ex)
-    L.given("q.theta_cs", r"\theta_{CS}", q.theta_cs, "K/W", "Case-to-sink",
-            defaulted="theta_cs" not in ex)
+    record_fields(L, q, (
+        ("q.v_be", r"V_{BE}", "v_be", "V", "Base-emitter voltage"),
+        ("q.h_fe", r"\beta_{min}", "h_fe_min", "", "Least current gain"),
+        ("q.t_j_max", r"T_{J,max}", "t_j_max", "degC", "Maker's junction limit"),
+        ("q.theta_jc", r"\theta_{JC}", "theta_jc", "K/W", "Junction-to-case"),
+        ("q.theta_ja", r"\theta_{JA}", "theta_ja", "K/W", "Junction-to-ambient"),
+        ("q.theta_cs", r"\theta_{CS}", "theta_cs", "K/W", "Case-to-sink"),
+    ))
     L.calc("zener.v_nom", eq.SUM2, r"V_Z", "V", "Zener voltage (output plus V_BE)",
            {"a": "output.v_nom", "b": "q.v_be"}, lambda a, b: a + b)
-    exz = z.model_fields_set
-    L.given("zener.tol", r"t_Z", z.tolerance, "%", "Zener voltage tolerance",
-            defaulted="tolerance" not in exz)
-    L.given("zener.i_zk", r"I_{ZK}", z.knee_current, "A", "Zener knee current",
-            defaulted="knee_current" not in exz)
-    L.given("zener.k_zk", r"k_{ZK}", z.min_current_factor, "", "Minimum zener current factor",
-            defaulted="min_current_factor" not in exz)
-    L.given("zener.r_z", r"r_z", z.dynamic_resistance, "ohm", "Zener dynamic resistance",
-            defaulted="dynamic_resistance" not in exz)
+    record_fields(L, z, (
+        ("zener.tol", r"t_Z", "tolerance", "%", "Zener voltage tolerance"),
+        ("zener.i_zk", r"I_{ZK}", "knee_current", "A", "Zener knee current"),
+        ("zener.k_zk", r"k_{ZK}", "min_current_factor", "", "Minimum zener current factor"),
+        ("zener.r_z", r"r_z", "dynamic_resistance", "ohm", "Zener dynamic resistance"),
+    ))
     L.given("output.headroom", r"V_{hr}", out.headroom, "V", "Headroom across R1 at the trough",
             defaulted="headroom" not in out.model_fields_set)
     L.calc("zener.v_max", eq.BOUND_HIGH, r"V_{Z,max}", "V", "Highest zener voltage",
