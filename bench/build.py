@@ -71,7 +71,8 @@ def run_with_rss(cmd: list[str], env: dict[str, str]) -> tuple[float, float, int
         proc.returncode = os.waitstatus_to_exitcode(status)
         out.seek(0)
         text = out.read()
-    rss_mib = usage.ru_maxrss / 1024.0  # KiB on Linux
+    # ru_maxrss is in KiB on Linux and in bytes on macOS.
+    rss_mib = usage.ru_maxrss / (1024.0 * 1024.0 if sys.platform == "darwin" else 1024.0)
     return wall, rss_mib, proc.returncode, text
 
 
