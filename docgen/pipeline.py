@@ -11,6 +11,7 @@ from __future__ import annotations
 import math
 from collections.abc import Callable
 from dataclasses import dataclass
+from functools import partial
 from pathlib import Path
 from typing import Any
 
@@ -739,15 +740,15 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
     kind = spec.output[0].regulator
     for _ in range(MAX_PASSES):
         ctx.picks.clear()
-        L = _guarded(lambda: _size(ctx))
-        cr = _guarded(lambda: analyse(L, spec.rectifier.topology, 0, spec.analysis.seed,
-                                      env.ambient_min, env.ambient_max, surge=False, kind=kind))
+        L = _guarded(partial(_size, ctx))
+        cr = _guarded(partial(analyse, L, spec.rectifier.topology, 0, spec.analysis.seed,
+                              env.ambient_min, env.ambient_max, surge=False, kind=kind))
         _derived_metrics(cr, L, spec)
         if not _bumps(ctx, L, cr):
             break
     # Final run with the Monte Carlo samples and the switch-on surge on the settled design.
-    cr = _guarded(lambda: analyse(L, spec.rectifier.topology, n_samples, spec.analysis.seed,
-                                  env.ambient_min, env.ambient_max, kind=kind))
+    cr = _guarded(partial(analyse, L, spec.rectifier.topology, n_samples, spec.analysis.seed,
+                          env.ambient_min, env.ambient_max, kind=kind))
     _derived_metrics(cr, L, spec)
     checks = _engine_values(ctx, L, cr)
     checks += _protection(ctx, L, cr)

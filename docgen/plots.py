@@ -66,7 +66,7 @@ def histogram_plot(samples: dict[str, np.ndarray], panels: list[dict[str, Any]])
     """Monte Carlo distributions, one panel per quantity, with its limit marked."""
     fig = _figure(6.6, 4.2)
     axes = fig.subplots(2, 2).ravel()
-    for ax, panel in zip(axes, panels):
+    for ax, panel in zip(axes, panels, strict=False):
         vals = np.asarray(samples[panel["metric"]], dtype=float)
         vals = vals[np.isfinite(vals)] * panel.get("scale", 1.0)
         ax.hist(vals, bins=30, color="#6fa8dc", edgecolor="#0b5394", lw=0.4)

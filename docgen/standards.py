@@ -59,7 +59,7 @@ def typical_regulation(va: float) -> float:
         return points[0][1]
     if va >= points[-1][0]:
         return points[-1][1]
-    for (s0, r0), (s1, r1) in zip(points, points[1:]):
+    for (s0, r0), (s1, r1) in zip(points, points[1:], strict=False):
         if s0 <= va <= s1:
             w = (math.log(va) - math.log(s0)) / (math.log(s1) - math.log(s0))
             return r0 + w * (r1 - r0)
