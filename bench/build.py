@@ -110,6 +110,7 @@ def wrap(owner, name, key):
 
 import docgen.build as build
 import docgen.render.html as html
+import docgen.render.mathsvg as mathsvg
 import docgen.render.pdf as pdf
 import weasyprint
 import weasyprint.document
@@ -117,6 +118,8 @@ T1 = time.perf_counter()
 wrap(build, "run", "pipeline (sizing, engine, corners, Monte Carlo)")
 wrap(build, "draw_plots", "plots and schematic")
 wrap(html, "render_html", "HTML (templates and formulas)")
+# Formulas: typeset ahead in one batch (prefetch), or one by one as the template asks.
+wrap(mathsvg, "prefetch", "  of which formulas")
 wrap(html, "formula_data_uri", "  of which formulas")
 wrap(pdf, "render_pdf", "render_pdf (all)")
 wrap(weasyprint.HTML, "__init__", "weasyprint: HTML parsing")
