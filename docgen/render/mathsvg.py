@@ -230,6 +230,25 @@ def _typeset_chunk(formulas: list[str]) -> list[tuple[str, float, float]]:
     return [typeset(latex) for latex in formulas]
 
 
+def _fresh_font_state() -> bool:
+    """In a forked worker: drop every font and parsed formula inherited from the parent.
+
+    A forked child shares the parent's open font files, file offsets included, so reading glyphs
+    through an inherited font object while the parent reads too can load the wrong bytes (seen
+    as a wrong outline or a FreeType error). matplotlib drops its font cache in a forked child
+    itself; its cache of parsed formulas also holds font objects and is dropped here. Returns
+    False when these caches are not where this code expects them (then nothing is forked)."""
+    try:
+        from matplotlib import font_manager
+        from matplotlib.mathtext import MathTextParser
+
+        font_manager._get_font.cache_clear()
+        MathTextParser._parse_cached.cache_clear()
+    except (ImportError, AttributeError):
+        return False
+    return True
+
+
 def _parallel_workers(missing: int) -> int:
     """Worker processes worth starting for ``missing`` formulas; 0 means typeset here."""
     import multiprocessing
@@ -239,13 +258,22 @@ def _parallel_workers(missing: int) -> int:
         return 0
     if multiprocessing.parent_process() is not None:
         return 0  # already a worker (e.g. of a batch build): do not multiply processes
+    # Forked workers only: a fresh interpreter per worker costs more than it saves and would
+    # re-run an unguarded __main__ script of a program that calls docgen.
     if "fork" not in multiprocessing.get_all_start_methods() or threading.active_count() > 1:
-        return 0  # a fresh interpreter per worker costs more than it saves
+        return 0
+    if not _fresh_font_state():  # (harmless in this process: the caches refill on use)
+        return 0
     try:
         cpus = len(os.sched_getaffinity(0))
     except (AttributeError, OSError):
         cpus = os.cpu_count() or 1
     return min(cpus, missing // (PARALLEL_MIN // 2)) if cpus > 1 else 0
+
+
+def _worker_start() -> None:
+    if not _fresh_font_state():  # pragma: no cover - checked before forking
+        raise RuntimeError("cannot reset the inherited font state")
 
 
 def prefetch(formulas: Iterable[str]) -> int:
@@ -277,13 +305,14 @@ def _typeset_in_workers(missing: list[str], workers: int):
     import multiprocessing
     from concurrent.futures import ProcessPoolExecutor
 
-    # The first formula here, before forking: the children inherit a ready parser and fonts.
+    # The first formula here, before forking: the children inherit a ready parser (they reopen
+    # the font files themselves, see _fresh_font_state).
     first = typeset(missing[0])
     rest = missing[1:]
     # Interleaved chunks: long and short formulas are spread evenly; chunk 0 stays here.
     chunks = [rest[k::workers] for k in range(workers)]
     try:
-        with ProcessPoolExecutor(max_workers=workers - 1,
+        with ProcessPoolExecutor(max_workers=workers - 1, initializer=_worker_start,
                                  mp_context=multiprocessing.get_context("fork")) as pool:
             futures = [pool.submit(_typeset_chunk, chunk) for chunk in chunks[1:]]
             done = [_typeset_chunk(chunks[0])] + [f.result() for f in futures]

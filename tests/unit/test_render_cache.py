@@ -169,17 +169,27 @@ def test_key_changes_with_the_formula_and_settings():
 
 
 def test_prefetch_in_worker_processes_gives_the_same_bytes(cache_dir, monkeypatch):
+    # 40 distinct formulas; mathtext keeps the last 50 it parsed, with their font objects.
+    formulas = [f"{f} + {k}" for k in range(5) for f in FORMULAS]
     monkeypatch.setenv("DOCGEN_NO_CACHE", "1")
-    serial = {f: mathsvg.typeset(f) for f in FORMULAS}
+    serial = {f: mathsvg.typeset(f) for f in formulas}
     monkeypatch.delenv("DOCGEN_NO_CACHE")
-    mathsvg.clear_memory()
     monkeypatch.setattr(mathsvg, "PARALLEL_MIN", 2)
-    workers = mathsvg._parallel_workers(len(FORMULAS))
-    assert mathsvg.prefetch(FORMULAS + FORMULAS[:2]) == len(FORMULAS)
-    assert {f: mathsvg.formula_svg(f) for f in FORMULAS} == serial
-    assert len(_entries(cache_dir)) == len(FORMULAS)
+    workers = mathsvg._parallel_workers(len(formulas))
+    # Each round parses every formula here first. A forked worker that read glyphs through the
+    # parent's font objects (same open files, same file offsets) got wrong outlines or FreeType
+    # errors now and then while both processes read.
+    for _ in range(3):
+        for f in formulas:
+            mathsvg.typeset(f)
+        mathsvg.clear_memory()
+        for p in _entries(cache_dir):
+            p.unlink()
+        assert mathsvg.prefetch(formulas + formulas[:2]) == len(formulas)
+        assert {f: mathsvg.formula_svg(f) for f in formulas} == serial
+        assert len(_entries(cache_dir)) == len(formulas)
     # Everything is known now: nothing more to typeset.
-    assert mathsvg.prefetch(FORMULAS) == 0
+    assert mathsvg.prefetch(formulas) == 0
     if workers < 2:
         pytest.skip("one CPU or threads running: the parallel path was not taken")
 
