@@ -164,6 +164,8 @@ ZENER_CURRENT_AT = _eq(
 INPUT_CURRENT = _eq("zener.input_current", "Regulator input current", r"\frac{$v - $z}{$R}",
                     {"v": r"V_{in}", "z": r"V_Z", "R": "R"}, "Ohm's law")
 POWER_VI = _eq("power.vi", "Power", r"$v \cdot $i", {"v": "V", "i": "I"}, DEF)
+POWER_I2R = _eq("power.i2r_tol", "Power in a resistor at its upper tolerance",
+                r"$i^2 \cdot $R \cdot (1 + $t)", {"i": "I", "R": "R", "t": r"t_R"}, DEF)
 POWER_V2R = _eq("power.v2r", "Power in a resistor", r"\frac{($a - $b)^2}{$R}",
                 {"a": r"V_a", "b": r"V_b", "R": "R"}, "Joule's law")
 DIVIDER = _eq("zener.ripple_out", "Output ripple through the R / r_z divider",

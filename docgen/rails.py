@@ -15,12 +15,12 @@ import math
 
 from . import equations as eq
 from . import standards
-from .checks import make_check, overall_status
 from .design import Check, Design, Stage
 from .errors import InfeasibleDesign
 from .spec import LoadedSpec
 from .spec.models import Requirements
 from .trace import Assumption, Ledger
+from .verify.checks import make_check, overall_status
 
 NEG = "neg."
 # Designators of the negative rail (the positive rail keeps the single-rail ones).
@@ -91,9 +91,9 @@ def _shared_note(design: Design, note: str) -> None:
             design.values[vid] = dataclasses.replace(design.values[vid], source=note)
 
 
-def run_split(loaded: LoadedSpec, library, samples: int | None) -> Design:
-    from .pipeline import run_rail
-
+def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail) -> Design:
+    """Both rails of a split supply, sized and verified by ``run_rail`` (the single-rail
+    pipeline, passed in so that this module does not import it)."""
     spec = loaded.requirements
     ipos = next(i for i, o in enumerate(spec.output) if o.polarity == "positive")
     ineg = 1 - ipos
