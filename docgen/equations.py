@@ -18,6 +18,12 @@ DEF = "definition"
 E: dict[str, Equation] = {}
 
 
+def define(id: str, title: str, rhs: str, params: dict[str, str], source: str,
+           note: str = "") -> Equation:
+    """Add an equation to the catalogue (a regulator kind's module may define its own)."""
+    return _eq(id, title, rhs, params, source, note)
+
+
 def _eq(id: str, title: str, rhs: str, params: dict[str, str], source: str, note: str = "") -> Equation:
     eq = Equation(id=id, title=title, rhs=rhs, params=params, source=source, note=note)
     if id in E:
@@ -164,8 +170,6 @@ ZENER_CURRENT_AT = _eq(
 INPUT_CURRENT = _eq("zener.input_current", "Regulator input current", r"\frac{$v - $z}{$R}",
                     {"v": r"V_{in}", "z": r"V_Z", "R": "R"}, "Ohm's law")
 POWER_VI = _eq("power.vi", "Power", r"$v \cdot $i", {"v": "V", "i": "I"}, DEF)
-POWER_I2R = _eq("power.i2r_tol", "Power in a resistor at its upper tolerance",
-                r"$i^2 \cdot $R \cdot (1 + $t)", {"i": "I", "R": "R", "t": r"t_R"}, DEF)
 POWER_V2R = _eq("power.v2r", "Power in a resistor", r"\frac{($a - $b)^2}{$R}",
                 {"a": r"V_a", "b": r"V_b", "R": "R"}, "Joule's law")
 DIVIDER = _eq("zener.ripple_out", "Output ripple through the R / r_z divider",

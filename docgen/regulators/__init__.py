@@ -23,8 +23,8 @@ KINDS: dict[str, tuple[str, str]] = {
     "three-terminal": ("three_terminal", "fixed three-terminal regulator"),
     "adjustable": ("adjustable", "adjustable three-terminal regulator with a divider"),
     "none": ("unregulated", "no regulator: the reservoir voltage is the output"),
-    "dropper": ("dropper", "no regulator, a series resistor between the reservoir and the "
-                           "output (an RC filter with the output capacitor)"),
+    "dropper": ("dropper", "no regulator: a series resistor drops the reservoir voltage to "
+                           "the output, for a load of nearly constant current"),
 }
 
 

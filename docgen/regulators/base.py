@@ -57,7 +57,7 @@ class Regulator:
     needs_intro = NEEDS_INTRO
     # How the engine models the kind's load, for the assumptions of the document.
     load_model = ""
-    # Schematic drawing style (see docgen.schematic) and the designators the kind uses.
+    # Schematic drawing style (see docgen.render.schematic) and the designators the kind uses.
     drawing = "none"
     refs: tuple[str, ...] = ()
     # Heat-sink budget this kind may size: (value prefix, heat-sink designator)

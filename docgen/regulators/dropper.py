@@ -25,6 +25,9 @@ INTRO = ("A series resistor drops the reservoir voltage to the output at full lo
          "follows the reservoir (mains, ripple) and the load current through the resistor, so "
          "this suits loads whose current hardly changes.")
 
+POWER_AT_TOLERANCE = eq.define(
+    "dropper.power", "Power in a resistor at its upper tolerance",
+    r"$i^2 \cdot $R \cdot (1 + $t)", {"i": "I", "R": "R", "t": r"t_R"}, "Joule's law")
 RESISTOR_POWER = EngineCheck("check.resistor_power", "Dropping-resistor dissipation <= derated "
                              "rating", "p_r_series", "max", "dropper.p_allowed", r"P_R", "W",
                              "R1", "margins.resistor_power_derating")
@@ -72,7 +75,7 @@ class Dropper(Regulator):
                    lambda x: preferred(x, "E24", "down"))
         L.given("dropper.r_tol", r"t_R", out.resistor_tolerance, "%", "Resistor tolerance",
                 defaulted="resistor_tolerance" not in out.model_fields_set)
-        L.calc("dropper.p", eq.POWER_I2R, r"P_{R,max}", "W",
+        L.calc("dropper.p", POWER_AT_TOLERANCE, r"P_{R,max}", "W",
                "Resistor dissipation at full load, upper tolerance",
                {"i": "output.i_max", "R": "dropper.r", "t": "dropper.r_tol"},
                lambda i, R, t: i * i * R * (1 + t))

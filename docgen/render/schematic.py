@@ -44,7 +44,8 @@ from typing import Any
 from xml.sax.saxutils import escape
 
 TOPOLOGIES = ("bridge", "center-tap", "half-wave", "split")
-REGULATORS = ("zener", "follower", "three-terminal", "adjustable", "none")
+# Drawing styles of a regulator section (each regulator kind names the style it is drawn in).
+REGULATORS = ("zener", "follower", "three-terminal", "adjustable", "none", "series")
 POLARITIES = ("+", "-")
 
 
@@ -128,6 +129,7 @@ _ROLES = {
     "three-terminal": {"U": ["reg"], "C": ["reservoir", "input", "output"]},
     "adjustable": {"U": ["reg"], "R": ["upper", "lower"], "C": ["reservoir", "input", "output"]},
     "none": {"C": ["reservoir", "output"]},
+    "series": {"R": ["series"], "C": ["reservoir", "output"]},
 }
 _C_FILL = ("reservoir", "output", "input")          # which capacitor roles are filled first
 _REQUIRED = {
@@ -136,6 +138,7 @@ _REQUIRED = {
     "three-terminal": ("reg", "input", "output"),
     "adjustable": ("reg", "upper", "lower", "input", "output"),
     "none": (),
+    "series": ("series",),
 }
 _ROLE_LETTER = {"series": "R", "base": "R", "upper": "R", "lower": "R", "zener": "D",
                 "pass": "Q", "reg": "U", "reservoir": "C", "input": "C", "output": "C"}
@@ -606,6 +609,12 @@ class _Schematic:
 
     def reg_none(self, f: _Frame, x: float, roles: dict) -> float:
         return self._tail(f, x, roles)
+
+    def reg_series(self, f: _Frame, x: float, roles: dict) -> float:
+        """A series element on the rail (a dropping resistor), then the output."""
+        x = self.series(f, x, H, self.elm.ResistorIEC, roles["series"])
+        f.wire((x, H), (x + 1.0, H))
+        return self._tail(f, x + 1.0, roles)
 
     def reg_zener(self, f: _Frame, x: float, roles: dict) -> float:
         x = self.series(f, x, H, self.elm.ResistorIEC, roles["series"])
