@@ -169,9 +169,34 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design) -> Desi
     monte_carlo = dict(a.monte_carlo)
     if b.monte_carlo:
         monte_carlo["negative_rail"] = b.monte_carlo
-    return dataclasses.replace(
-        a, requirements=spec, stages=stages, values=values,
-        equations={**a.equations, **b.equations, **L.equations}, checks=checks, parts=parts,
-        assumptions=assumptions, cautions=cautions, status=overall_status(checks),
-        waveforms=waveforms, corners=corners, monte_carlo=monte_carlo,
-        spec_path=str(loaded.path))
+    merged = {
+        "spec_path": str(loaded.path),
+        "spec_text": a.spec_text,  # both rails read the same file
+        "spec_sha256": a.spec_sha256,
+        "requirements": spec,
+        "stages": stages,
+        "values": values,
+        "equations": {**a.equations, **b.equations, **L.equations},
+        "checks": checks,
+        "parts": parts,
+        "assumptions": assumptions,
+        "cautions": cautions,
+        "status": overall_status(checks),
+        "infeasible_reason": "",
+        "waveforms": waveforms,
+        "corners": corners,
+        "monte_carlo": monte_carlo,
+        "samples": a.samples,  # the histograms show the positive rail; the negative rail's
+                               # Monte Carlo summary is in monte_carlo["negative_rail"]
+        "library": a.library,
+        "tool_version": a.tool_version,
+    }
+    return Design(**{name: merged[name] for name in MERGED_FIELDS})
+
+
+# Every field of Design, each merged explicitly above; a test fails when a field is added to
+# Design and not here.
+MERGED_FIELDS = ("spec_path", "spec_text", "spec_sha256", "requirements", "stages", "values",
+                 "equations", "checks", "parts", "assumptions", "cautions", "status",
+                 "infeasible_reason", "waveforms", "corners", "monte_carlo", "samples",
+                 "library", "tool_version")

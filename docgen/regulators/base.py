@@ -65,6 +65,12 @@ class Regulator:
     # Names of the kind's own corner axes, for captions ("V_Z low / high" ...)
     corner_axis_names: tuple[str, ...] = ()
     engine_checks: tuple[EngineCheck, ...] = ()
+    # Ledger id prefixes the kind's two stages write (tests/unit/test_ledger.py holds kinds to
+    # them): the output requirements, what the regulator draws, the reservoir ripple under its
+    # load law, and its own block.
+    writes: tuple[str, ...] = ("output.", "env.", "regulator.", "reservoir.ripple_low",
+                               "reservoir.ripple_high", "reservoir.valley_low",
+                               "reservoir.v_mean_high")
 
     # -- sizing ----------------------------------------------------------------------------
     def needs(self, ctx: SizingContext, L: Ledger) -> None:

@@ -43,6 +43,7 @@ class Dropper(Regulator):
     load_model = "the load as a constant current through the dropping resistor"
     drawing = "series"
     refs = ("R1",)
+    writes = (*Regulator.writes, "dropper.", "margins.resistor_power")
     corner_axis_names = ("dropping resistor",)
     engine_checks = (OUTPUT_RIPPLE, OUTPUT_HIGH, OUTPUT_LOW, RESISTOR_POWER, *COMMON_CHECKS)
 

@@ -167,6 +167,8 @@ class Follower(Regulator):
                   "input stays above the zener voltage")
     drawing = "follower"
     refs = ("R1", "DZ1", "Q1")
+    writes = (*Regulator.writes, "zener.", "q.", "margins.zener_power",
+              "margins.resistor_power", "margins.t_j_design")
     heat_sink = ("q", "HS2")
     corner_axis_names = ("zener voltage", "base resistor")
     engine_checks = (

@@ -122,6 +122,7 @@ class ThreeTerminal(Regulator):
                   "input stays above output plus dropout")
     drawing = "three-terminal"
     refs = ("U1",)
+    writes = (*Regulator.writes, "reg.", "margins.t_j_design")
     heat_sink = ("reg", "HS1")
     engine_checks = (
         EngineCheck("check.dropout", "Capacitor trough >= output plus dropout", "v_c_min", "min",

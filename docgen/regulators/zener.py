@@ -87,6 +87,7 @@ class Zener(Regulator):
     load_model = "the zener as a knee voltage plus dynamic resistance behind its series resistor"
     drawing = "zener"
     refs = ("R1", "DZ1")
+    writes = (*Regulator.writes, "zener.", "margins.zener_power", "margins.resistor_power")
     corner_axis_names = ("zener voltage", "series resistor")
     engine_checks = (
         EngineCheck("check.headroom", "Drop across R at the trough >= headroom", "headroom",

@@ -9,6 +9,7 @@ from ..topology import topology
 from ..trace import Ledger
 from .context import SizingContext
 
+WRITES = ("mains.",)
 TITLE = "Mains supply"
 INTRO = ("The supply range follows the tolerances in the requirements file; by default the "
          "IEC 60038 supply range of +/-10 % around nominal.")

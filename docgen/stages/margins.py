@@ -6,6 +6,7 @@ from ..topology import topology
 from ..trace import Ledger
 from .context import SizingContext
 
+WRITES = ("margins.",)
 TITLE = "Design margins"
 INTRO = "Derating factors and design ratios used below."
 

@@ -15,6 +15,7 @@ from ..topology import topology
 from ..trace import Ledger
 from .context import Pick, SizingContext
 
+WRITES = ("fuse.", "bleeder.", "engine.i_sec_nominal", "engine.surge_i2t")
 TITLE = "Protection"
 INTRO = ("A time-lag (T) fuse in the live lead, rated from the transformer's primary current "
          "with a margin, must carry the simulated operating current and survive the switch-on "

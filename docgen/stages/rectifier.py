@@ -11,6 +11,7 @@ from ..topology import topology
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
 
+WRITES = ("rect.", "margins.diode_", "transformer.i_rms")
 TITLE = "Rectifier"
 INTRO = ("The blocking diode of a bridge sees the winding peak; in a center-tap or half-wave "
          "circuit it sees twice the path peak. Both are worst at high line and no load. The "

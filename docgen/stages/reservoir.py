@@ -12,6 +12,7 @@ from ..regulators import regulator
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
 
+WRITES = ("reservoir.", "margins.cap_voltage", "regulator.i_in_high_est")
 TITLE = "Reservoir capacitor"
 INTRO = ("The capacitor carries the load between charging pulses. Its capacitance follows from "
          "the ripple allowed at the regulator input with the constant-current approximation "

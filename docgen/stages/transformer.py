@@ -15,6 +15,10 @@ from .context import Pick, SizingContext, require
 # secondary only heats the shunt regulator (common practice).
 MAX_SECONDARY_EXCESS = 1.5
 
+# (it also fixes the design ripple of the reservoir and the diode drop it is sized with)
+WRITES = ("transformer.", "rect.n_d", "rect.v_f", "reservoir.ripple_fraction",
+          "reservoir.v_pk_by_fraction", "reservoir.ripple_by_fraction",
+          "reservoir.ripple_allowed")
 TITLE = "Transformer"
 INTRO = ("The rated secondary voltage is specified at rated load and nominal mains, so the "
          "low-line, full-load secondary is the rated voltage scaled by the low-line ratio. The "

@@ -17,6 +17,8 @@ from .checks import make_check
 from .corners import CornerResult, model_inputs
 from .worst import worst_corner
 
+# Ids the evaluation writes (stage "corners"): engine figures and capacitor life.
+WRITES = ("engine.", "reservoir.life", "reservoir.t_core", "reservoir.r_th", "env.required_life")
 LIFE_CAP = 15 * 8766 * 3600.0  # s; 15 years of 8766 h
 
 
