@@ -32,10 +32,15 @@ BRIDGE_CURRENT_CLASSES = ((0.5, 20.0), (1.0, 30.0), (1.5, 50.0), (2.0, 60.0), (3
 FUSE_RATINGS = (0.032, 0.04, 0.05, 0.063, 0.08, 0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5,
                 0.63, 0.8, 1.0, 1.25, 1.6, 2.0, 2.5, 3.15, 4.0, 5.0, 6.3, 8.0, 10.0)
 
-# Typical load regulation of small mains transformers by VA (common practice, no source;
-# band figures from makers' notes, upper part of each band so maxima stay conservative).
-TYPICAL_REGULATION = ((1.0, 0.50), (3.0, 0.35), (5.0, 0.25), (10.0, 0.22), (15.0, 0.18),
-                      (30.0, 0.13), (50.0, 0.11), (80.0, 0.09), (160.0, 0.07), (500.0, 0.05))
+# Typical load regulation of small mains transformers by VA, used only when neither the file nor
+# a library part gives one (common practice, no source: makers' notes give bands of 30-60 % for
+# 1-3 VA, 20-30 % for 5-10 VA, 12-20 % for 15-30 VA, 8-12 % for 50-80 VA, 6-9 % for 100-160 VA
+# and 4-6 % for 300-500 VA). Each band is taken at its upper (pessimistic) end: a softer
+# transformer has a higher no-load voltage (voltage ratings, shunt dissipation) and a larger
+# winding resistance (less headroom at the trough), so the upper end is conservative both ways.
+TYPICAL_REGULATION = ((1.0, 0.60), (3.0, 0.60), (5.0, 0.30), (10.0, 0.30), (15.0, 0.20),
+                      (30.0, 0.20), (50.0, 0.12), (80.0, 0.12), (100.0, 0.09), (160.0, 0.09),
+                      (300.0, 0.06), (500.0, 0.06))
 
 
 class NoStandardValue(ValueError):

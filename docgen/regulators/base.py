@@ -115,6 +115,12 @@ class Regulator:
         (``pts`` are the corners followed by the samples)."""
         return {}
 
+    def output_wave(self, L: Ledger, wave: dict[str, np.ndarray], load: float, v_z: float,
+                    r: float) -> np.ndarray:
+        """The output voltage over time at one operating point, from the engine's waveforms
+        (the engine's own output node by default: the zener node, or the capacitor)."""
+        return wave["v_out"]
+
     def hand_checks(self, ctx: SizingContext, L: Ledger, warn_band: float) -> list[Check]:
         """Checks on hand figures that the engine does not change (tolerance windows...)."""
         return []

@@ -131,6 +131,9 @@ class Dropper(Regulator):
                 "v_out_mean": m["v_c_mean"] - drop, "v_out_pp": m["ripple_pp"],
                 "p_r_series": pts.load * drop, "p_out": (m["v_c_mean"] - drop) * pts.load}
 
+    def output_wave(self, L, wave, load, v_z, r):
+        return wave["v_c"] - load * r
+
     def trough_short(self, v):
         return v.short("check.output_low", "output.v_lower_limit", "min")
 

@@ -62,14 +62,16 @@ def draw_plots(design: Design) -> dict[str, str]:
     if "trough" in design.waveforms:
         plots["waveforms_trough"] = figure_svg(waveform_plot(
             design.waveforms["trough"],
-            "Low line, full load, C at -tol, V_Z high, R +tol (the trough corner)",
+            f"The trough corner: {design.waveforms['trough']['corner']}",
             {**limits, "trough": v["reservoir.valley_low"].value}))
     if "nominal" in design.waveforms:
         plots["waveforms_nominal"] = figure_svg(waveform_plot(
-            design.waveforms["nominal"], "Nominal mains, full load", limits))
+            design.waveforms["nominal"], f"Nominal corner: {design.waveforms['nominal']['corner']}",
+            limits))
     if "neg_trough" in design.waveforms:
         plots["waveforms_trough_neg"] = figure_svg(waveform_plot(
-            design.waveforms["neg_trough"], "Negative rail: the trough corner (magnitudes)",
+            design.waveforms["neg_trough"],
+            f"Negative rail, trough corner (magnitudes): {design.waveforms['neg_trough']['corner']}",
             {"v_out_hi": v["neg.output.v_upper_limit"].value,
              "v_out_lo": v["neg.output.v_lower_limit"].value}))
     if design.samples:

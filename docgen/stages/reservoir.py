@@ -9,6 +9,7 @@ from .. import standards
 from ..errors import InfeasibleDesign
 from ..parts.eseries import preferred
 from ..regulators import regulator
+from ..topology import topology
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
 
@@ -65,10 +66,16 @@ def size_reservoir(ctx: SizingContext, L: Ledger) -> None:
     L.calc("reservoir.v_rating_needed", eq.DERATED_NEED, r"V_{C,rated,req}", "V",
            "Capacitor voltage rating needed", {"x": "reservoir.v_max", "k": "margins.cap_voltage"},
            lambda x, k: x / k)
+    topo = topology(spec.rectifier.topology)
+    L.given("reservoir.k_w", r"k_w", topo.winding_factor, "",
+            "Rectifier output RMS per winding RMS",
+            source=f"{topo.name} rectifier" + (": two half windings feed the capacitor in turn"
+                                                if topo.center_tapped else ""))
     L.calc("reservoir.i_ripple_est", eq.CAP_RIPPLE_CURRENT, r"I_{C,rms,est}", "A",
-           "Capacitor ripple current estimate (table ratio, high line)",
-           {"i": "regulator.i_in_high_est", "k": "margins.secondary_rms_factor"},
-           lambda i, k: i * math.sqrt(max(k * k - 1, 0.0)))
+           "Capacitor ripple current estimate (initial, table ratio, high line)",
+           {"i": "regulator.i_in_high_est", "w": "reservoir.k_w",
+            "k": "margins.secondary_rms_factor"},
+           lambda i, w, k: i * math.sqrt(max((w * k) ** 2 - 1, 0.0)))
 
     part = None
     if r.part:

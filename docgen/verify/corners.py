@@ -143,6 +143,15 @@ def _concat(a: PointSet, b: PointSet | None) -> PointSet:
                     load_name=a.load_name + b.load_name)
 
 
+def _with_output(L: Ledger, reg, wave: dict, pts: PointSet, k: int) -> dict:
+    """A kept waveform with the kind's output voltage and the name of its corner."""
+    out = dict(wave)
+    out["v_out"] = reg.output_wave(L, wave, float(pts.load[k]), float(pts.v_z[k]),
+                                   float(pts.r[k]))
+    out["corner"] = pts.name[k]
+    return out
+
+
 def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_max: float, *,
             reg, surge: bool = True) -> CornerResult:
     """Simulate every corner and Monte Carlo sample of the design in one engine call, the
@@ -180,7 +189,8 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
     return CornerResult(
         corners=corners, samples=mc, metrics=metrics, converged=ss.converged,
         surge_peak=surge_peak, surge_i2t=surge_i2t, surge_converged=surge_ok,
-        waveforms={name: ss.waveforms[k] for name, k in (("nominal", nominal), ("trough", trough))
+        waveforms={name: _with_output(L, reg, ss.waveforms[k], corners, k)
+                   for name, k in (("nominal", nominal), ("trough", trough))
                    if k in ss.waveforms and bool(ss.converged[k])},
         nominal_index=nominal,
     )
