@@ -147,10 +147,10 @@ def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResu
         target = out_dir / "plots" / f"{name}.svg"
         write_atomic(target, svg)
         files.append(target)
-    from .render.bom import bom_csv
+    from .render.bom import BOM_CSV, STRESS_CSV, bom_csv, stress_csv
 
-    for name, data in (("results.json", results), ("bom.csv", bom_csv(design)),
-                       ("report.html", html)):
+    for name, data in (("results.json", results), (BOM_CSV, bom_csv(design)),
+                       (STRESS_CSV, stress_csv(design)), ("report.html", html)):
         write_atomic(out_dir / name, data)
         files.append(out_dir / name)
     if pdf:
