@@ -53,3 +53,22 @@ PositiveFraction = Annotated[float, _reader("ratio", "%", positive=True, high=10
 Tempco = Annotated[float, _reader("tempco", "%/degC", low=-0.01, high=0.01)]
 ThermalResistance = Annotated[float, _reader("thermal_resistance", "K/W", positive=True,
                                              high=1e4)]
+
+
+def _decibels(raw: object) -> float:
+    """A level in decibels: a plain number or text such as "60 dB" (dB is not an SI unit, so
+    the shared unit parser does not take it)."""
+    text = raw.strip() if isinstance(raw, str) else raw
+    if isinstance(text, str) and text.endswith("dB"):
+        text = text[:-2].strip()
+    try:
+        value = float(text) if isinstance(text, (str, int, float)) and not isinstance(
+            text, bool) else float("nan")
+    except ValueError:
+        value = float("nan")
+    if not 0.0 <= value <= 120.0:
+        raise ValueError(f"expected a level from 0 dB to 120 dB such as \"60 dB\", got {raw!r}")
+    return value
+
+
+Decibels = Annotated[float, BeforeValidator(_decibels)]
