@@ -9,6 +9,7 @@ from .design import Design
 from .errors import InfeasibleDesign
 from .output import prepare_dir, safe_stem, write_atomic
 from .pipeline import run
+from .progress import stage
 from .spec import load_requirements
 
 
@@ -120,10 +121,12 @@ def draw_plots(design: Design) -> dict[str, str]:
 
 
 def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResult:
-    loaded = load_requirements(spec_path)
+    with stage("reading the requirements"):
+        loaded = load_requirements(spec_path)
     out_dir = out_root / safe_stem(spec_path)
     try:
-        design = run(loaded)
+        with stage("sizing, corners and Monte Carlo"):
+            design = run(loaded)
     except InfeasibleDesign as exc:
         prepare_dir(out_dir)
         import json
@@ -138,10 +141,12 @@ def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResu
     from .render.results_json import results_json
 
     prepare_dir(out_dir)
-    plots = draw_plots(design)
+    with stage("plots and schematic"):
+        plots = draw_plots(design)
     files: list[Path] = []
-    results = results_json(design)
-    html = render_html(design, plots)
+    with stage("results.json and HTML"):
+        results = results_json(design)
+        html = render_html(design, plots)
     for name, svg in plots.items():
         prepare_dir(out_dir / "plots")
         target = out_dir / "plots" / f"{name}.svg"
@@ -156,12 +161,13 @@ def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResu
     if pdf:
         from .render.pdf import render_pdf
 
-        pdf_bytes = render_pdf(
-            html,
-            {spec_path.name: design.spec_text.encode("utf-8"),
-             "results.json": results.encode("utf-8")},
-            title=design.requirements.project.title,
-        )
+        with stage("PDF (WeasyPrint layout and drawing)"):
+            pdf_bytes = render_pdf(
+                html,
+                {spec_path.name: design.spec_text.encode("utf-8"),
+                 "results.json": results.encode("utf-8")},
+                title=design.requirements.project.title,
+            )
         write_atomic(out_dir / "report.pdf", pdf_bytes)
         files.append(out_dir / "report.pdf")
     return BuildResult(spec_path, out_dir, design.status, files, design)

@@ -49,7 +49,7 @@ def _as_written(value: float, unit: str) -> str:
 
 @pytest.mark.parametrize("name,field,unit,default", FIELDS, ids=[r[0] for r in FIELDS])
 def test_default_written_with_its_documented_unit_is_accepted(name, field, unit, default):
-    adapter = TypeAdapter(Annotated[field.annotation, *field.metadata])
+    adapter = TypeAdapter(Annotated[(field.annotation, *field.metadata)])
     assert adapter.validate_python(_as_written(default, unit)) == pytest.approx(default)
 
 
@@ -66,4 +66,4 @@ def test_a_wrong_unit_is_still_refused():
                        ("Reservoir.thermal_resistance", "25 %")):
         f = by_name[name]
         with pytest.raises(ValidationError):
-            TypeAdapter(Annotated[f.annotation, *f.metadata]).validate_python(text)
+            TypeAdapter(Annotated[(f.annotation, *f.metadata)]).validate_python(text)
