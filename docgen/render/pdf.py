@@ -45,8 +45,11 @@ def _font_css() -> str:
         f'src: url("{(d / f).as_uri()}"); }}'
         for fam, w, s, f in faces
     ]
-    rules.append(f'html {{ font-family: "{SANS}"; }}')
-    rules.append(f'.mono, .vid, .eqid, pre, code, kbd, samp {{ font-family: "{MONO}"; }}')
+    # WeasyPrint applies these as user rules, which lose to the report's own (author) rules
+    # unless important.
+    rules.append(f'html {{ font-family: "{SANS}" !important; }}')
+    rules.append(f'.mono, .vid, .eqid, pre, code, kbd, samp {{ font-family: "{MONO}" '
+                 '!important; }')
     return "\n".join(rules)
 
 

@@ -12,7 +12,10 @@ from docgen.render.pdf import font_dir, render_pdf
 pypdf = pytest.importorskip("pypdf")
 TTFont = pytest.importorskip("fontTools.ttLib").TTFont
 
-HTML = """<!DOCTYPE html><html lang="en"><head><meta charset="utf-8"><title>t</title></head>
+# The page's own rules name the fonts as the report does (author rules, as in report.css).
+HTML = """<!DOCTYPE html><html lang="en"><head><meta charset="utf-8"><title>t</title>
+<style>html { font-family: "DejaVu Sans", sans-serif; }
+pre { font-family: "DejaVu Sans Mono", monospace; }</style></head>
 <body><h1>Heading</h1><p>Text with <b>bold</b> and <i>italic</i>, µF and Ω.</p>
 <pre>mono text</pre><table><caption>A table</caption><tr><th>a</th><td>1</td></tr></table>
 </body></html>"""
