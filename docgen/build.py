@@ -163,7 +163,7 @@ def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResu
 
         with stage("PDF (WeasyPrint layout and drawing)"):
             pdf_bytes = render_pdf(
-                html,
+                render_html(design, plots, medium="print"),
                 {spec_path.name: design.spec_text.encode("utf-8"),
                  "results.json": results.encode("utf-8")},
                 title=design.requirements.project.title,
