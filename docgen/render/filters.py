@@ -63,7 +63,7 @@ def _group(text: str, i: int) -> tuple[str, int]:
 
 
 def _simple(text: str) -> bool:
-    return all(ch.isalnum() or ch in ".,µΩ°" for ch in text)
+    return all(ch.isalnum() or ch in ".,µΩ° _" for ch in text)
 
 
 def formula_text(latex: str) -> str:
