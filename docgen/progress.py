@@ -15,7 +15,7 @@ from typing import TextIO
 
 
 class StageReporter:
-    """Shows the running stage on a terminal (``live``) and prints each stage's time (``timings``)."""
+    """Shows the running stage on a terminal (``live``); prints stage times (``timings``)."""
 
     def __init__(self, stream: TextIO | None = None, *, live: bool | None = None,
                  timings: bool = False, label: str = "") -> None:
