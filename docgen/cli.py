@@ -377,10 +377,15 @@ def _build_batch(specs: list[Path], args) -> int:
 
     specs = unique_specs(specs, args.out)
     progress = None if args.quiet else Progress(len(specs))
-    # Every spec is validated first, so a bad file is reported before the first build starts;
-    # the valid ones are still built.
+    # Every spec to be built is validated first, so a bad file is reported before the first
+    # build starts; the valid ones are still built. An up-to-date spec was valid when it was
+    # built and has not changed since, so it is not read again (a no-change run stays fast).
+    from .incremental import check_up_to_date
+
+    stale = [spec for spec in specs
+             if args.force or check_up_to_date(spec, args.out, pdf=not args.no_pdf)[0] is None]
     invalid = {}
-    for label, _, error in _load_all(specs):
+    for label, _, error in _load_all(stale):
         if error is not None:
             invalid[label] = _error_outcome(Path(label), args.out, str(error), error.exit_code)
             if progress is not None:
