@@ -160,9 +160,12 @@ def _parser() -> argparse.ArgumentParser:
 
     s = _sub(sub, "schema", "print a JSON Schema (requirements file or results.json)",
              "Print the JSON Schema of the requirements file (for editors and TOML language "
-             "servers; quantities accept a number or a string with units) or of results.json.",
+             "servers; quantities accept a number or a string with units), of results.json, or "
+             "of the --format json output of check, build or diff.",
              SCHEMA_EXIT)
-    s.add_argument("which", choices=("requirements", "results"))
+    s.add_argument("which", choices=("requirements", "results", "check", "build", "diff"),
+                   help="requirements file, results.json, or the --format json output of "
+                   "check, build or diff")
 
     k = _sub(sub, "completion", "print a shell completion script",
              "Print a completion script for bash or zsh, generated from docgen's own "

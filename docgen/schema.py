@@ -140,7 +140,72 @@ def results_schema() -> dict[str, Any]:
     }
 
 
-SCHEMAS = {"requirements": requirements_schema, "results": results_schema}
+def _cli(command: str, body: dict[str, Any], required: list[str]) -> dict[str, Any]:
+    """The envelope every --format json document shares (docgen.cli_json), around ``body``."""
+    props = {"format": {"const": f"docgen-{command}"}, "format_version": {"const": 1},
+             "tool_version": _STR, "exit_code": {"enum": [0, 1, 2]}, "error": _STR, **body}
+    return {"$schema": DRAFT, "$id": BASE_ID + f"cli-{command}.schema.json",
+            "title": f"docgen {command} --format json",
+            "description": f"What `docgen {command} --format json` prints on stdout "
+            "(docs/cli-json.md). New keys may appear within format_version 1.",
+            "type": "object", "properties": props,
+            "required": ["format", "format_version", "tool_version", "exit_code"],
+            "if": {"not": {"required": ["error"]}}, "then": {"required": required}}
+
+
+def check_output_schema() -> dict[str, Any]:
+    counts = {"type": "object", "additionalProperties": {"type": "integer", "minimum": 0}}
+    check = _obj({"id": _STR, "title": _STR, "status": {"enum": ["pass", "warn", "fail"]},
+                  "value": _NUM, "limit": _NUM, "unit": _STR, "sense": {"enum": ["max", "min"]},
+                  "margin": _NUM, "corner": _STR, "ref": _STR, "requirement": _STR})
+    spec = _obj({"spec": _STR, "status": {"enum": ["pass", "warn", "fail", "infeasible", "error"]},
+                 "counts": counts, "reason": _STR, "checks": {"type": "array", "items": check}})
+    return _cli("check", {"strict": {"type": "boolean"},
+                          "specs": {"type": "array", "items": spec}}, ["strict", "specs"])
+
+
+def build_output_schema() -> dict[str, Any]:
+    ids = {"type": "array", "items": _STR}
+    spec = _obj({"spec": _STR, "out_dir": _STR,
+                 "action": {"enum": ["built", "up to date", "error"]},
+                 "status": {"enum": ["pass", "warn", "fail", "infeasible", "error"]},
+                 "counts": {"type": "object"}, "failing": ids, "warnings": ids, "reason": _STR,
+                 "why": ids, "seconds": {"type": "number", "minimum": 0},
+                 "exit_code": {"enum": [0, 1, 2]}})
+    return _cli("build", {"strict": {"type": "boolean"}, "out": _STR,
+                          "specs": {"type": "array", "items": spec}}, ["strict", "out", "specs"])
+
+
+def diff_output_schema() -> dict[str, Any]:
+    side = _obj({"label": _STR, "status": _STR, "reason": _STR,
+                 "notes": {"type": "array", "items": _STR}})
+    field = _obj({"path": _STR, "old": _STR, "new": _STR})
+    body = {
+        "changed": {"type": "boolean"}, "change_count": {"type": "integer", "minimum": 0},
+        "compared": {"type": "boolean"}, "threshold": {"type": "number", "minimum": 0},
+        "old": side, "new": side,
+        "requirements": {"type": "array", "items": field},
+        "document": {"type": "array", "items": field},
+        "values": {"type": "array", "items": _obj(
+            {"id": _STR, "title": _STR, "old": _STR, "new": _STR, "percent": _NUM})},
+        "parts": {"type": "array", "items": _obj(
+            {"ref": _STR, "kind": _STR, "old": _STR, "new": _STR, "old_detail": _STR,
+             "new_detail": _STR})},
+        "checks": {"type": "array", "items": _obj(
+            {"id": _STR, "title": _STR, "old_status": _STR, "new_status": _STR,
+             "old_margin": _NUM, "new_margin": _NUM, "flipped": {"type": "boolean"}})},
+        "cautions": {"type": "array", "items": _obj(
+            {"id": _STR, "title": _STR, "change": {"enum": ["added", "removed"]}})},
+    }
+    return _cli("diff", body, list(body))
+
+
+SCHEMAS = {"requirements": requirements_schema, "results": results_schema,
+           "check": check_output_schema, "build": build_output_schema,
+           "diff": diff_output_schema}
+# file names in docs/schema/
+FILES = {"requirements": "requirements", "results": "results", "check": "cli-check",
+         "build": "cli-build", "diff": "cli-diff"}
 
 
 def schema_text(which: str) -> str:
@@ -155,8 +220,8 @@ def main() -> None:  # pragma: no cover - developer tool, checked by the docs te
     target = docs_dir()
     target.mkdir(parents=True, exist_ok=True)
     for which in SCHEMAS:
-        (target / f"{which}.schema.json").write_text(schema_text(which), encoding="utf-8")
-        print(f"wrote {target / f'{which}.schema.json'}")
+        (target / f"{FILES[which]}.schema.json").write_text(schema_text(which), encoding="utf-8")
+        print(f"wrote {target / f'{FILES[which]}.schema.json'}")
 
 
 if __name__ == "__main__":  # pragma: no cover

@@ -21,6 +21,14 @@ FAILING = DATA / "undersized-capacitor.toml"
 BAD = DATA / "bad-unit.toml"
 
 
+def _conforms(doc: dict, which: str) -> None:
+    """The printed JSON matches its published schema (docs/schema/cli-*.schema.json)."""
+    jsonschema = pytest.importorskip("jsonschema")
+    from docgen.schema import SCHEMAS
+
+    jsonschema.Draft7Validator(SCHEMAS[which]()).validate(doc)
+
+
 def _infeasible(tmp_path):
     spec = tmp_path / "infeasible.toml"
     text = (ROOT / "specs" / "bench-psu-12v-follower.toml").read_text(encoding="utf-8")
@@ -49,6 +57,7 @@ def test_check_json_gives_every_verdict_and_the_exit_code(tmp_path, capsys):
     assert by_spec[str(BAD)]["status"] == "error"
     assert "output[0].load_max" in by_spec[str(BAD)]["reason"]
     assert "output[0].load_max" in err  # the message still reaches a person
+    _conforms(doc, "check")
 
 
 def test_check_json_alone_passes_a_ci_gate(capsys):
@@ -61,6 +70,7 @@ def test_json_on_an_error_before_any_spec(tmp_path, capsys):
     assert main(["check", "--format", "json", str(tmp_path)]) == 2
     doc = json.loads(capsys.readouterr().out)
     assert doc["exit_code"] == 2 and "no .toml" in doc["error"]
+    _conforms(doc, "check")
 
 
 def test_quiet_prints_nothing_and_keeps_the_exit_code(capsys):
@@ -144,6 +154,7 @@ def test_build_json_and_batch_validates_first(tmp_path, capsys):
     assert err.index("z-bad.toml: ERROR") < err.index("a.toml: built")
     assert (tmp_path / "out" / "a" / "bom.csv").is_file()
     assert not (tmp_path / "out" / "z-bad").exists()
+    _conforms(doc, "build")
 
 
 def test_diff_json(tmp_path, capsys):
@@ -155,12 +166,16 @@ def test_diff_json(tmp_path, capsys):
     assert main(["diff", "--format", "json", str(ALL_PASS), str(ALL_PASS)]) == 0
     same = json.loads(capsys.readouterr().out)
     assert same["changed"] is False and same["values"] == [] and same["exit_code"] == 0
+    _conforms(same, "diff")
     code = main(["diff", "--format", "json", str(ALL_PASS), str(changed)])
     doc = json.loads(capsys.readouterr().out)
     assert code == 1 and doc["exit_code"] == 1 and doc["changed"] is True
     assert [r["path"] for r in doc["requirements"]] == ["output[0].load_max"]
     assert doc["values"] and all(isinstance(v["percent"], (float, type(None)))
                                  for v in doc["values"])
+    _conforms(doc, "diff")
+    with pytest.raises(Exception, match="is not of type"):
+        _conforms({**doc, "changed": "yes"}, "diff")  # the schema does check
 
 
 @pytest.mark.parametrize("command", ["build", "check", "diff", "new", "schema", "completion"])

@@ -9,7 +9,7 @@ from pathlib import Path
 import pytest
 
 from docgen.cli import main
-from docgen.schema import docs_dir, requirements_schema, results_schema, schema_text
+from docgen.schema import FILES, docs_dir, requirements_schema, results_schema, schema_text
 from docgen.starter import REGULATORS, starter
 from tests.conftest import DATA, ROOT
 
@@ -33,9 +33,9 @@ def _errors(schema, document) -> list[str]:
             for e in _validator(schema).iter_errors(document)]
 
 
-@pytest.mark.parametrize("which", ["requirements", "results"])
+@pytest.mark.parametrize("which", list(FILES))
 def test_published_schema_is_current(which):
-    path = docs_dir() / f"{which}.schema.json"
+    path = docs_dir() / f"{FILES[which]}.schema.json"
     assert path.read_text(encoding="utf-8") == schema_text(which), (
         "docs/schema is stale: run python -m docgen.schema")
 
@@ -111,10 +111,10 @@ def test_infeasible_results_json_validates(tmp_path):
 
 
 def test_schema_command_prints_the_published_files(capsys):
-    for which in ("requirements", "results"):
+    for which, name in FILES.items():
         assert main(["schema", which]) == 0
         printed = capsys.readouterr().out
-        assert printed == (docs_dir() / f"{which}.schema.json").read_text(encoding="utf-8")
+        assert printed == (docs_dir() / f"{name}.schema.json").read_text(encoding="utf-8")
         assert json.loads(printed)["$schema"].startswith("http://json-schema.org/draft-07")
 
 
