@@ -7,6 +7,7 @@ safety approval: every caution defers to local codes and a qualified person.
 from __future__ import annotations
 
 from .design import Check
+from .topology import Topology
 from .trace import Caution
 
 DEFER = ("Follow the local wiring rules (for example IEC 60364 or the national code) and the "
@@ -56,18 +57,12 @@ STORED_ENERGY_LIMIT = 20.0  # J, a stored-energy threshold used by equipment sta
 
 def triggered_cautions(
     v_dc_max: float, v_sec_nl_max: float, stored_energy: float, checks: list[Check],
-    *, topology: str = "bridge", dual_frequency: tuple[float, float] | None = None,
+    *, topology: Topology, dual_frequency: tuple[float, float] | None = None,
 ) -> list[Caution]:
     out: list[Caution] = []
-    if topology == "half-wave":
-        out.append(Caution(
-            "caution.half_wave_dc", "DC in the transformer core",
-            "A half-wave rectifier draws current from the secondary in one direction only: the "
-            "DC component pre-magnetises the core, so the transformer runs hotter and draws "
-            "more magnetising current than its rating suggests. Keep half-wave designs to "
-            "small loads and ask the transformer maker.",
-            "common practice: makers' selection tables suggest half-wave for about 0.5 W or less",
-            triggered_by="rectifier.topology"))
+    if topology.caution is not None:
+        cid, title, text, source = topology.caution
+        out.append(Caution(cid, title, text, source, triggered_by="rectifier.topology"))
     if dual_frequency is not None:
         lo, hi = sorted(dual_frequency)
         out.append(Caution(

@@ -18,6 +18,12 @@ DEF = "definition"
 E: dict[str, Equation] = {}
 
 
+def define(id: str, title: str, rhs: str, params: dict[str, str], source: str,
+           note: str = "") -> Equation:
+    """Add an equation to the catalogue (a regulator kind's module may define its own)."""
+    return _eq(id, title, rhs, params, source, note)
+
+
 def _eq(id: str, title: str, rhs: str, params: dict[str, str], source: str, note: str = "") -> Equation:
     eq = Equation(id=id, title=title, rhs=rhs, params=params, source=source, note=note)
     if id in E:

@@ -1,12 +1,14 @@
 """The commented starter requirements file printed by ``docgen new``, one per regulator kind.
 
-Each starter checks as it is (tests/unit/test_starter.py builds every kind): the output block
+Each starter checks as it is (tests/e2e/test_cli_formats.py checks every kind): the output block
 shows the fields that matter for that regulator, the rest of the file is shared.
 """
 
 from __future__ import annotations
 
-REGULATORS = ("zener", "follower", "three-terminal", "adjustable", "none")
+from .regulators import KINDS
+
+REGULATORS = tuple(KINDS)  # every kind of the registry has a starter (a test holds it to that)
 
 _HEAD = '''\
 # docgen requirements file. Quantities take units ("230 V", "40 mA", "4700 uF", "10 %",
@@ -130,6 +132,18 @@ tolerance = "4 %"                     # of the reference
 # dropout = "2 V"
 # ripple_rejection = "60 dB"
 # theta_ja = "50 K/W"
+''',
+    "dropper": '''
+[[output]]
+name = "main rail"
+voltage = "12 V"                      # at full load
+tolerance = "40 %"                    # the output follows the mains and the reservoir ripple
+load_min = "90 mA"                    # a nearly constant load (relay coils, LEDs, a fan)
+load_max = "100 mA"
+load_can_disconnect = false
+ripple_max = "1.5 V"                  # peak to peak
+regulator = "dropper"                 # a series resistor drops the reservoir voltage
+headroom = "2 V"                      # least drop across the resistor at the ripple trough
 ''',
     "none": '''
 [[output]]

@@ -99,8 +99,11 @@ class Ledger:
     values: dict[str, TracedValue] = field(default_factory=dict)
     equations: dict[str, Equation] = field(default_factory=dict)
     stage: str = ""
+    # (stage, id) of every read, in order: what the ledger test checks the stages against
+    reads: list[tuple[str, str]] = field(default_factory=list)
 
     def __getitem__(self, value_id: str) -> float:
+        self.reads.append((self.stage, value_id))
         return self.values[value_id].value
 
     def __contains__(self, value_id: str) -> bool:
@@ -162,6 +165,7 @@ class Ledger:
         if missing:
             raise TraceError(f"{value_id}: unknown input ids {missing}")
         self.equations.setdefault(equation.id, equation)
+        self.reads += [(self.stage, vid) for vid in inputs.values()]
         args = {p: self.values[vid].value for p, vid in inputs.items()}
         try:
             result = float(fn(**args))

@@ -14,7 +14,6 @@ from dataclasses import dataclass
 from ..design import Design, PartChoice
 
 SHARED = {"T1", "F1", "R9", "R10", "BR1", "D1", "D3"}
-NEGATIVE = {"C2", "R2", "DZ2", "U2", "Q2", "R4", "R5"}
 
 
 @dataclass(frozen=True)
@@ -50,7 +49,8 @@ def _rectifier(topology: str, parts: dict[str, PartChoice], vc: str, vneg: str) 
     return []
 
 
-def _regulator(kind: str, refs: list[str], vin: str, out: str, negative: bool) -> list[tuple]:
+def _regulator(style: str, refs: list[str], vin: str, out: str, negative: bool) -> list[tuple]:
+    """Connections of one output's parts by the kind's drawing style (docgen.regulators)."""
     by_letter: dict[str, list[str]] = {}
     for ref in sorted(refs, key=_natural):
         by_letter.setdefault(_natural(ref)[0], []).append(ref)
@@ -58,16 +58,18 @@ def _regulator(kind: str, refs: list[str], vin: str, out: str, negative: bool) -
     q, u = by_letter.get("Q", []), by_letter.get("U", [])
     rows: list[tuple] = []
     zener_pins = ("anode: {0}; cathode: 0 V" if negative else "cathode: {0}; anode: 0 V")
-    if kind == "zener" and r and dz:
+    if style == "series" and r:
+        rows.append((r[0], f"{vin} to {out}"))
+    elif style == "zener" and r and dz:
         rows += [(r[0], f"{vin} to {out}"), (dz[0], zener_pins.format(out))]
-    elif kind == "follower" and r and dz and q:
+    elif style == "follower" and r and dz and q:
         base = "B-" if negative else "B"
         rows += [(r[0], f"{vin} to {base}"), (dz[0], zener_pins.format(base)),
                  (q[0], f"collector: {vin}; base: {base}; emitter: {out}"
                         + (" (PNP)" if negative else " (NPN)"))]
-    elif kind == "three-terminal" and u:
+    elif style == "three-terminal" and u:
         rows.append((u[0], f"input: {vin}; ground: 0 V; output: {out}"))
-    elif kind == "adjustable" and u:
+    elif style == "adjustable" and u:
         adj = "ADJ-" if negative else "ADJ"
         rows.append((u[0], f"input: {vin}; adjust: {adj}; output: {out}"))
         if len(r) >= 2:
@@ -97,15 +99,20 @@ def netlist(design: Design) -> list[Connection]:
     for bleeder in ("R9", "R10"):
         if bleeder in parts:
             rows.append((bleeder, f"{vc} to {vneg or '0 V'} (bleeder)"))
+    from ..rails import REF_MAP
+    from ..regulators import regulator
+
+    negative_refs = set(REF_MAP.values()) - SHARED
     for out in spec.output:
         negative = out.polarity == "negative"
         refs = [r for r in parts if r not in SHARED and not r.startswith("HS")
-                and r not in ("C1", "C2") and ((r in NEGATIVE) == negative or not split)]
+                and r not in ("C1", "C2") and ((r in negative_refs) == negative or not split)]
         node = "OUT-" if negative else ("OUT+" if split else "OUT")
         vin = vneg if negative else vc
-        if out.regulator == "none":
+        style = regulator(out.regulator).drawing
+        if style == "none":
             rows.append(("", f"{out.name}: {node} is {vin}"))
-        rows += _regulator(out.regulator, refs, vin, node, negative)
+        rows += _regulator(style, refs, vin, node, negative)
     last = ""  # a heat sink follows the part it cools in the bill of materials
     for p in design.parts:
         if p.ref.startswith(("U", "Q")):

@@ -11,6 +11,7 @@ from typing import Any, Literal
 
 from pydantic import BaseModel, ConfigDict, Field, ValidationInfo, field_validator, model_validator
 
+from ..regulators import KINDS as REGULATOR_KINDS
 from .quantities import (
     ApparentPower,
     Capacitance,
@@ -324,11 +325,10 @@ class Output(Section):
         description="True when the load can be unplugged, so the regulator sees no load.",
     )
     ripple_max: Voltage = q(..., "V", "Maximum output ripple, peak to peak.")
-    regulator: Literal["zener", "follower", "three-terminal", "adjustable", "none"] = Field(
+    regulator: Literal[tuple(REGULATOR_KINDS)] = Field(  # type: ignore[valid-type]
         default="zener",
-        description="Regulator kind: zener (shunt), follower (zener-referenced emitter "
-        "follower), three-terminal (fixed), adjustable (three-terminal with a divider), none "
-        "(the reservoir voltage is the output).",
+        description="Regulator kind: " + "; ".join(
+            f"{name} ({what})" for name, (_, what) in REGULATOR_KINDS.items()) + ".",
     )
     headroom: Voltage = q(
         3.0, "V", "Minimum drop across the series element at the ripple trough, low line, "

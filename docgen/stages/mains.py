@@ -5,9 +5,11 @@ from __future__ import annotations
 import math
 
 from .. import equations as eq
+from ..topology import topology
 from ..trace import Ledger
 from .context import SizingContext
 
+WRITES = ("mains.",)
 TITLE = "Mains supply"
 INTRO = ("The supply range follows the tolerances in the requirements file; by default the "
          "IEC 60038 supply range of +/-10 % around nominal.")
@@ -39,9 +41,8 @@ def size_mains(ctx: SizingContext, L: Ledger) -> None:
            {"v": "mains.v_nom", "t": "mains.tol_high"}, lambda v, t: v * (1 + t))
     L.calc("mains.v_pk_high", eq.SINE_PEAK, r"V_{pk,hi}", "V", "High-line peak voltage",
            {"v": "mains.v_high"}, lambda v: math.sqrt(2) * v)
-    if ctx.spec.rectifier.topology == "half-wave":
-        L.calc("mains.ripple_freq", eq.RIPPLE_FREQ_HW, r"f_r", "Hz",
-               "Ripple frequency (half-wave)", {"f": "mains.freq"}, lambda f: f)
-    else:
-        L.calc("mains.ripple_freq", eq.RIPPLE_FREQ_FW, r"f_r", "Hz",
-               "Ripple frequency (full-wave)", {"f": "mains.freq"}, lambda f: 2 * f)
+    topo = topology(ctx.spec.rectifier.topology)
+    pulses = topo.pulses_per_cycle
+    L.calc("mains.ripple_freq", topo.ripple_equation, r"f_r", "Hz",
+           f"Ripple frequency ({'half' if topo.half_wave else 'full'}-wave)", {"f": "mains.freq"},
+           lambda f: pulses * f)

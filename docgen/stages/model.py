@@ -8,6 +8,7 @@ from .. import equations as eq
 from ..trace import Ledger
 from .context import SizingContext
 
+WRITES = ("transformer.", "reservoir.esr", "reservoir.tan_delta")
 TITLE = "Circuit model"
 INTRO = ("The waveform engine needs the transformer's source impedance and the capacitor's ESR. "
          "When the file does not give them they are estimated from the transformer's rating "

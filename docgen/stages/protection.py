@@ -11,9 +11,11 @@ import math
 from .. import equations as eq
 from .. import standards
 from ..parts.eseries import preferred
+from ..topology import topology
 from ..trace import Ledger
 from .context import Pick, SizingContext
 
+WRITES = ("fuse.", "bleeder.", "engine.i_sec_nominal", "engine.surge_i2t")
 TITLE = "Protection"
 INTRO = ("A time-lag (T) fuse in the live lead, rated from the transformer's primary current "
          "with a margin, must carry the simulated operating current and survive the switch-on "
@@ -35,8 +37,9 @@ def size_protection(ctx: SizingContext, L: Ledger, i_sec_nominal: float, i2t_sec
     L.measured("engine.i_sec_nominal", eq.ENGINE, r"I_{sec,rms}", i_sec_nominal, "A",
                "Winding RMS current at nominal mains, full load (engine)",
                ("transformer.v_nl", "transformer.r_w", "reservoir.c"), "nominal mains, full load")
-    L.given("fuse.k_w", r"k_w", math.sqrt(2) if spec.rectifier.topology == "center-tap" else 1.0,
-            "", "Winding factor", source=f"{spec.rectifier.topology} rectifier")
+    topo = topology(spec.rectifier.topology)
+    L.given("fuse.k_w", r"k_w", topo.winding_factor, "", "Winding factor",
+            source=f"{topo.name} rectifier")
     L.calc("fuse.i_pri", eq.TURNS_REFLECT, r"I_{pri,rms}", "A",
            "Primary RMS current in operation (engine, referred)",
            {"k": "fuse.k_w", "i": "engine.i_sec_nominal", "s": "transformer.v_nl",

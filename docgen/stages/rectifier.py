@@ -7,9 +7,11 @@ import math
 from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
+from ..topology import topology
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
 
+WRITES = ("rect.", "margins.diode_", "transformer.i_rms")
 TITLE = "Rectifier"
 INTRO = ("The blocking diode of a bridge sees the winding peak; in a center-tap or half-wave "
          "circuit it sees twice the path peak. Both are worst at high line and no load. The "
@@ -17,41 +19,33 @@ INTRO = ("The blocking diode of a bridge sees the winding peak; in a center-tap 
          "peak-rectifier formula bounds from above; the switch-on surge into the empty "
          "capacitor is limited by the winding resistance.")
 
-REFS = {"bridge": "BR1", "center-tap": "D1", "half-wave": "D1"}
-# Diodes that share the DC current: a bridge part is rated by its output current; two diodes
-# of a center-tap circuit each carry half; a half-wave diode carries all of it.
-OUTPUT_PER_RATING = {"bridge": 1.0, "center-tap": 2.0, "half-wave": 1.0}
 
 
-def rectifier_ref(topology: str) -> str:
-    return REFS[topology]
+def rectifier_ref(name: str) -> str:
+    return topology(name).designator
 
 
 def size_rectifier(ctx: SizingContext, L: Ledger) -> None:
     spec = ctx.spec
     m = spec.margins
-    topology = spec.rectifier.topology
-    ref = REFS[topology]
-    if topology == "bridge":
-        L.calc("rect.piv", eq.PIV_BRIDGE, r"V_{R,max}", "V", "Peak reverse voltage per diode",
-               {"v": "transformer.v_high_nl"}, lambda v: math.sqrt(2) * v)
-    else:
-        L.calc("rect.piv", eq.PIV_DOUBLE, r"V_{R,max}", "V", "Peak reverse voltage per diode",
-               {"v": "transformer.v_high_nl"}, lambda v: 2 * math.sqrt(2) * v)
-    if topology == "half-wave":
+    topo = topology(spec.rectifier.topology)
+    ref = topo.designator
+    k_piv = topo.piv_factor
+    L.calc("rect.piv", topo.piv_equation, r"V_{R,max}", "V", "Peak reverse voltage per diode",
+           {"v": "transformer.v_high_nl"}, lambda v: k_piv * math.sqrt(2) * v)
+    if topo.half_wave:
         L.calc("rect.i_avg", eq.IDENT, r"I_{D,avg}", "A", "Average current of the diode",
                {"x": "regulator.i_in_max"}, lambda x: x)
-        peak_eq = eq.PEAK_CURRENT_HW
 
         def peak(i, v, r):
             return i * (1 + 2 * math.pi * math.sqrt(2 * v / r))
     else:
         L.calc("rect.i_avg", eq.HALF, r"I_{D,avg}", "A", "Average current per diode (high line)",
                {"i": "regulator.i_in_max"}, lambda i: i / 2)
-        peak_eq = eq.PEAK_CURRENT_FW
 
         def peak(i, v, r):
             return i * (1 + 2 * math.pi * math.sqrt(v / (2 * r)))
+    peak_eq = topo.peak_equation
     L.calc("rect.i_peak_low", peak_eq, r"I_{D,pk,lo}", "A",
            "Repetitive peak diode current (low line, full load)",
            {"i": "regulator.i_trough", "v": "reservoir.v_pk_low", "r": "reservoir.ripple_low"},
@@ -92,7 +86,7 @@ def size_rectifier(ctx: SizingContext, L: Ledger) -> None:
         from ..parts.select import select_bridge_or_diodes
 
         sel = select_bridge_or_diodes(
-            ctx.library.bridges, ctx.library.diodes, topology=topology,
+            ctx.library.bridges, ctx.library.diodes, topology=topo.name,
             peak_reverse_voltage=L["rect.piv"],
             dc_current=max(L["regulator.i_in_max"],
                            ctx.floors.bridge_current * m.diode_current_derating),
@@ -104,7 +98,8 @@ def size_rectifier(ctx: SizingContext, L: Ledger) -> None:
     if part is not None:
         src = f"library part {part.id}"
         # discrete diodes are rated per diode; a bridge by its output current
-        scale = 1.0 if part.kind == "bridge" else (2.0 if topology != "half-wave" else 1.0)
+        # (full-wave: each diode of a pair carries every other pulse)
+        scale = 1.0 if part.kind == "bridge" else float(topo.pulses_per_cycle)
         L.given("rect.v_rrm", r"V_{RRM}", part.v_rrm, "V", "Reverse-voltage rating", source=src)
         L.given("rect.i_f_rating", r"I_{F(AV)}", part.i_f_avg * scale, "A",
                 "Average output-current rating" + (" (two diodes share the current)"
@@ -122,7 +117,7 @@ def size_rectifier(ctx: SizingContext, L: Ledger) -> None:
 
 
 def _standard_classes(ctx: SizingContext, L: Ledger, ref: str) -> None:
-    topology = ctx.spec.rectifier.topology
+    topo = topology(ctx.spec.rectifier.topology)
     try:
         standards.next_at_or_above(L["rect.v_rrm_needed"], standards.DIODE_VRRM)
     except standards.NoStandardValue:
@@ -138,7 +133,7 @@ def _standard_classes(ctx: SizingContext, L: Ledger, ref: str) -> None:
                "Rectifier current rating needed (floor applied)", {"a": need, "b": floor},
                lambda a, b: max(a, b))
         need = "rect.i_f_needed_floored"
-    per = OUTPUT_PER_RATING[topology]
+    per = topo.output_per_rating
     classes = tuple(c for c, _ in standards.BRIDGE_CURRENT_CLASSES)
     try:
         standards.next_at_or_above(L[need] / per, classes)
@@ -150,6 +145,5 @@ def _standard_classes(ctx: SizingContext, L: Ledger, ref: str) -> None:
     surge = dict(standards.BRIDGE_CURRENT_CLASSES)[L["rect.i_f_rating"] / per]
     L.given("rect.i_fsm", r"I_{FSM}", surge, "A", "Typical surge rating of the class",
             source="common practice: typical 8.3 ms half-sine rating of the current class")
-    kind = "bridge" if topology == "bridge" else "diode"
-    ctx.picks[ref] = Pick(ref, kind, "sized",
+    ctx.picks[ref] = Pick(ref, topo.part_kind, "sized",
                           reason="standard rating classes at or above the derated need")

@@ -8,9 +8,11 @@ from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
 from ..parts.eseries import preferred
+from ..regulators import regulator
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
 
+WRITES = ("reservoir.", "margins.cap_voltage", "regulator.i_in_high_est")
 TITLE = "Reservoir capacitor"
 INTRO = ("The capacitor carries the load between charging pulses. Its capacitance follows from "
          "the ripple allowed at the regulator input with the constant-current approximation "
@@ -36,15 +38,7 @@ def size_reservoir(ctx: SizingContext, L: Ledger) -> None:
     L.calc("reservoir.v_max", eq.SINE_PEAK, r"V_{C,max}", "V",
            "Capacitor peak at high line, no load (no diode drop: conservative)",
            {"v": "transformer.v_high_nl"}, lambda v: math.sqrt(2) * v)
-    if spec.output[0].regulator == "zener":
-        L.calc("regulator.i_in_high_est", eq.INPUT_CURRENT, r"I_{in,hi,est}", "A",
-               "Regulator input current at high line (estimate with R_target)",
-               {"v": "reservoir.v_pk_high", "z": "zener.v_min", "R": "regulator.r_target"},
-               lambda v, z, R: (v - z) / R)
-    else:
-        from .series import input_current_high
-
-        input_current_high(ctx, L)
+    regulator(spec.output[0].regulator).input_current_high(ctx, L)
     L.calc("reservoir.c_calc", eq.CAP_FOR_RIPPLE, r"C_{calc}", "F",
            "Capacitance for the allowed ripple at the largest input current",
            {"i": "regulator.i_in_high_est", "f": "mains.ripple_freq",
@@ -141,3 +135,12 @@ def size_reservoir(ctx: SizingContext, L: Ledger) -> None:
                            "E6 value at or above the need; standard voltage step")
     L.calc("reservoir.c_min", eq.BOUND_LOW, r"C_{min}", "F", "Lowest capacitance (tolerance)",
            {"x": "reservoir.c", "t": "reservoir.tol"}, lambda x, t: x * (1 - t))
+
+
+def stored_energy_and_allowance(ctx: SizingContext, L: Ledger) -> None:
+    """Energy at the highest voltage (for the cautions) and the derated voltage allowed."""
+    L.calc("reservoir.energy", eq.ENERGY, r"E_C", "J", "Energy stored at the highest voltage",
+           {"c": "reservoir.c", "v": "reservoir.v_max"}, lambda c, v: 0.5 * c * v * v)
+    L.calc("reservoir.v_allowed", eq.SCALE, r"V_{C,allow}", "V",
+           "Capacitor voltage allowed (derated)",
+           {"v": "reservoir.v_rating", "k": "margins.cap_voltage"}, lambda v, k: v * k)

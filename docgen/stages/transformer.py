@@ -7,6 +7,7 @@ import math
 from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
+from ..topology import topology
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
 
@@ -14,6 +15,10 @@ from .context import Pick, SizingContext, require
 # secondary only heats the shunt regulator (common practice).
 MAX_SECONDARY_EXCESS = 1.5
 
+# (it also fixes the design ripple of the reservoir and the diode drop it is sized with)
+WRITES = ("transformer.", "rect.n_d", "rect.v_f", "reservoir.ripple_fraction",
+          "reservoir.v_pk_by_fraction", "reservoir.ripple_by_fraction",
+          "reservoir.ripple_allowed")
 TITLE = "Transformer"
 INTRO = ("The rated secondary voltage is specified at rated load and nominal mains, so the "
          "low-line, full-load secondary is the rated voltage scaled by the low-line ratio. The "
@@ -44,9 +49,9 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
            "Ripple allowed at the regulator input",
            {"a": "reservoir.ripple_by_fraction", "b": "regulator.ripple_in_allowed"},
            lambda a, b: min(a, b))
-    topology = spec.rectifier.topology
-    L.given("rect.n_d", r"n_d", 2.0 if topology == "bridge" else 1.0, "",
-            "Diodes conducting in series", source=f"{topology} rectifier")
+    topo = topology(spec.rectifier.topology)
+    L.given("rect.n_d", r"n_d", float(topo.diodes_in_path), "",
+            "Diodes conducting in series", source=f"{topo.name} rectifier")
     L.calc("transformer.v_pk_needed", eq.SEC_PEAK_NEEDED_N, r"V_{path,pk,lo}", "V",
            "Winding peak needed at low line, full load",
            {"v": "regulator.v_in_min_needed", "r": "reservoir.ripple_allowed", "n": "rect.n_d",
@@ -56,7 +61,7 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
            "Winding RMS needed at low line, full load",
            {"v": "transformer.v_pk_needed"}, lambda v: v / math.sqrt(2))
     rated_calc = "transformer.v_rated_calc"
-    if topology == "center-tap":
+    if topo.center_tapped:
         L.calc("transformer.v_half_calc", eq.RATED_FROM_LOW_LINE, r"V_{half,calc}", "V",
                "Rated half-winding needed (nominal mains, rated load)",
                {"v": "transformer.v_rms_low_needed", "t": "mains.tol_low"},
@@ -106,7 +111,7 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
     L.calc("transformer.i_rated", eq.RATED_CURRENT, r"I_{sec,rated}", "A",
            "Rated secondary current", {"s": "transformer.va", "v": "transformer.v_rated"},
            lambda s, v: s / v)
-    if topology == "center-tap":
+    if topo.center_tapped:
         L.calc("transformer.v_path", eq.CT_HALF, r"V_{path}", "V",
                "Rated voltage of each half winding", {"v": "transformer.v_rated"},
                lambda v: v / 2)
@@ -161,7 +166,7 @@ def _size_rating(ctx: SizingContext, L: Ledger) -> None:
         need_v = L["transformer.v_rated_needed"]
         # The lowest secondary at or above the need wins before price: every extra volt is
         # dissipated in the regulator (common practice).
-        tapped = ctx.spec.rectifier.topology == "center-tap"
+        tapped = topology(ctx.spec.rectifier.topology).center_tapped
         # the selector compares half windings for a center-tapped need
         need_sel = need_v / 2 if tapped else need_v
         steps = sorted((p.half_voltage if tapped else p.secondary_voltage)
@@ -179,7 +184,7 @@ def _size_rating(ctx: SizingContext, L: Ledger) -> None:
         _from_part(L, part)
         return
     need = L["transformer.v_rated_needed"]
-    if ctx.spec.rectifier.topology == "center-tap":
+    if topology(ctx.spec.rectifier.topology).center_tapped:
         # standard center-tapped windings are twice a standard half (2 x 12 V = 24 V)
         L.calc("transformer.v_rated", eq.PICKED, r"V_{sec}", "V",
                "Rated whole winding (twice a standard half)",

@@ -27,8 +27,9 @@ import pytest
 from scipy.optimize import brentq, minimize_scalar
 
 from docgen.pipeline import run
+from docgen.regulators import zener_sizing
 from docgen.spec import load_requirements
-from docgen.stages import mains, rectifier, regulator_needs, reservoir
+from docgen.stages import mains, rectifier, reservoir
 from docgen.trace import Ledger
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -192,7 +193,7 @@ def test_w2_series_resistor_and_minimum_zener_current(tmp_path):
     spec = load(tmp_path, output_section(headroom=f"{v_in - v_z!r}") + W2_ZENER).requirements
     L = Ledger()
     call_stage(mains.size_mains, spec, L)
-    call_stage(regulator_needs.size_regulator_needs, spec, L)
+    call_stage(zener_sizing.size_needs, spec, L)
     assert L["zener.i_min"] == pytest.approx(5e-3, rel=1e-12)  # §W2: I_Z,min = 5 mA
     assert L["regulator.v_in_min_needed"] == pytest.approx(v_in, rel=1e-12)
     assert L["regulator.r_target"] == pytest.approx(470.0, rel=1e-12)  # §W2: R = 470 ohm
@@ -215,7 +216,7 @@ def test_zener_voltage_extremes_with_tempco(tmp_path):
     spec = load(tmp_path, body).requirements
     L = Ledger()
     call_stage(mains.size_mains, spec, L)
-    call_stage(regulator_needs.size_regulator_needs, spec, L)
+    call_stage(zener_sizing.size_needs, spec, L)
     assert L["zener.delta_t"] == 50.0
     assert L["zener.v_max"] == pytest.approx(10.0 + 0.25, rel=1e-12)
     assert L["zener.v_min"] == pytest.approx(10.0 - 0.25, rel=1e-12)
@@ -228,7 +229,7 @@ def test_zener_tolerance_widens_the_window(tmp_path):
     spec = load(tmp_path, body).requirements
     L = Ledger()
     call_stage(mains.size_mains, spec, L)
-    call_stage(regulator_needs.size_regulator_needs, spec, L)
+    call_stage(zener_sizing.size_needs, spec, L)
     assert L["zener.v_max"] == pytest.approx(9.1 * 1.05, rel=1e-12)
     assert L["zener.v_min"] == pytest.approx(9.1 * 0.95, rel=1e-12)
 

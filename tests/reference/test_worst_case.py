@@ -5,8 +5,9 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from docgen.pipeline import LIFE_CAP, capacitor_life, run
+from docgen.pipeline import run
 from docgen.spec import load_requirements
+from docgen.verify.evaluate import LIFE_CAP, capacitor_life
 
 from ..conftest import DATA, DEMO_STANDALONE
 

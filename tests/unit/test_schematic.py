@@ -12,7 +12,7 @@ from pathlib import Path
 
 import pytest
 
-from docgen.schematic import (
+from docgen.render.schematic import (
     REGULATORS,
     TOPOLOGIES,
     OutputDrawing,
@@ -32,6 +32,7 @@ LABELS = {
     "adjustable": {"C1": "4700 uF 35 V", "C2": "100 nF", "C3": "10 uF 25 V",
                    "U1": "1.25 V reference", "R1": "240 ohm", "R2": "2.0 kohm"},
     "none": {"C1": "1000 uF 25 V"},
+    "series": {"C1": "1000 uF 25 V", "R1": "20 ohm 0.5 W"},
 }
 
 
@@ -120,7 +121,7 @@ def test_identical_bytes_in_a_fresh_interpreter_whatever_was_imported_before():
     # another hash seed, and a second render after WeasyPrint has registered its XML
     # namespace prefixes (process-wide ElementTree state)
     code = ("import sys; from tests.unit.test_schematic import _drawing;"
-            "from docgen.schematic import schematic_svg;"
+            "from docgen.render.schematic import schematic_svg;"
             "d = _drawing('center-tap', 'adjustable'); a = schematic_svg(d);"
             "import weasyprint.pdf.metadata; b = schematic_svg(d);"
             "sys.stdout.write(a if a == b else 'differs after importing weasyprint')")
@@ -250,7 +251,7 @@ def test_natural_width_fits_16_cm():
 
 
 def test_importing_the_module_does_not_import_drawing_libraries():
-    code = ("import sys, docgen.schematic;"
+    code = ("import sys, docgen.render.schematic;"
             "sys.exit(bool({'schemdraw', 'matplotlib'} & set(sys.modules)))")
     subprocess.run([sys.executable, "-c", code], cwd=ROOT, check=True)
 

@@ -15,12 +15,12 @@ import math
 
 from . import equations as eq
 from . import standards
-from .checks import make_check, overall_status
 from .design import Check, Design, Stage
 from .errors import InfeasibleDesign
 from .spec import LoadedSpec
 from .spec.models import Requirements
 from .trace import Assumption, Ledger
+from .verify.checks import make_check, overall_status
 
 NEG = "neg."
 # Designators of the negative rail (the positive rail keeps the single-rail ones).
@@ -91,9 +91,9 @@ def _shared_note(design: Design, note: str) -> None:
             design.values[vid] = dataclasses.replace(design.values[vid], source=note)
 
 
-def run_split(loaded: LoadedSpec, library, samples: int | None) -> Design:
-    from .pipeline import run_rail
-
+def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail) -> Design:
+    """Both rails of a split supply, sized and verified by ``run_rail`` (the single-rail
+    pipeline, passed in so that this module does not import it)."""
     spec = loaded.requirements
     ipos = next(i for i, o in enumerate(spec.output) if o.polarity == "positive")
     ineg = 1 - ipos
@@ -169,9 +169,34 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design) -> Desi
     monte_carlo = dict(a.monte_carlo)
     if b.monte_carlo:
         monte_carlo["negative_rail"] = b.monte_carlo
-    return dataclasses.replace(
-        a, requirements=spec, stages=stages, values=values,
-        equations={**a.equations, **b.equations, **L.equations}, checks=checks, parts=parts,
-        assumptions=assumptions, cautions=cautions, status=overall_status(checks),
-        waveforms=waveforms, corners=corners, monte_carlo=monte_carlo,
-        spec_path=str(loaded.path))
+    merged = {
+        "spec_path": str(loaded.path),
+        "spec_text": a.spec_text,  # both rails read the same file
+        "spec_sha256": a.spec_sha256,
+        "requirements": spec,
+        "stages": stages,
+        "values": values,
+        "equations": {**a.equations, **b.equations, **L.equations},
+        "checks": checks,
+        "parts": parts,
+        "assumptions": assumptions,
+        "cautions": cautions,
+        "status": overall_status(checks),
+        "infeasible_reason": "",
+        "waveforms": waveforms,
+        "corners": corners,
+        "monte_carlo": monte_carlo,
+        "samples": a.samples,  # the histograms show the positive rail; the negative rail's
+                               # Monte Carlo summary is in monte_carlo["negative_rail"]
+        "library": a.library,
+        "tool_version": a.tool_version,
+    }
+    return Design(**{name: merged[name] for name in MERGED_FIELDS})
+
+
+# Every field of Design, each merged explicitly above; a test fails when a field is added to
+# Design and not here.
+MERGED_FIELDS = ("spec_path", "spec_text", "spec_sha256", "requirements", "stages", "values",
+                 "equations", "checks", "parts", "assumptions", "cautions", "status",
+                 "infeasible_reason", "waveforms", "corners", "monte_carlo", "samples",
+                 "library", "tool_version")

@@ -1,9 +1,10 @@
 """Worst-case corners and Monte Carlo samples of one design, run through the waveform engine.
 
 Corners combine the extremes of every tolerance that moves a checked quantity: mains low /
-nominal / high, load least / full, capacitance at -tol / +tol, zener voltage at its lower /
-upper extreme (tolerance and temperature), series resistor at -tol / +tol. That is 3 x 2 x 2 x
-2 x 2 = 48 operating points; each check reports the corner where it is worst.
+nominal / high, load least / full, capacitance at -tol / +tol, and the regulator kind's own
+axes (a zener shunt adds its zener voltage at the lower / upper extreme and its series resistor
+at -tol / +tol: 3 x 2 x 2 x 2 x 2 = 48 points; a three-terminal regulator adds none: 12). Each
+check reports the corner where it is worst.
 
 Monte Carlo draws every tolerance independently and uniformly within its band (uniform is the
 conservative choice when the distribution is unknown: common practice), with the seed from the
@@ -14,13 +15,15 @@ vectorised call.
 from __future__ import annotations
 
 import itertools
+import math
 from dataclasses import dataclass, field
 from typing import Any
 
 import numpy as np
 
-from .engine import Circuit, simulate, switch_on
-from .trace import Ledger
+from ..engine import Circuit, simulate, switch_on
+from ..topology import topology as topology_record
+from ..trace import Ledger
 
 # Inputs the circuit model can be built from, for the trace of every engine value.
 MODEL_INPUTS = (
@@ -73,6 +76,11 @@ class CornerResult:
     nominal_index: int = 0
 
     @property
+    def points(self) -> PointSet:
+        """Corners followed by the samples, in the order of the metrics."""
+        return _concat(self.corners, self.samples)
+
+    @property
     def n_corners(self) -> int:
         return len(self.corners)
 
@@ -83,7 +91,7 @@ class CornerResult:
         return self.metrics[name][self.n_corners:]
 
 
-def corner_points(L: Ledger, kind: str = "zener") -> PointSet:
+def corner_points(L: Ledger, reg) -> PointSet:
     """Corners of the tolerances that matter for this regulator kind."""
     tl, th = L["mains.tol_low"], L["mains.tol_high"]
     lines = [("low line", 1 - tl), ("nominal mains", 1.0), ("high line", 1 + th)]
@@ -92,17 +100,8 @@ def corner_points(L: Ledger, kind: str = "zener") -> PointSet:
              ("full load", L["output.i_max"])]
     c, tc = L["reservoir.c"], L["reservoir.tol"]
     caps = [(f"C -{tc * 100:g} %", c * (1 - tc)), (f"C +{tc * 100:g} %", c * (1 + tc))]
-    if kind == "zener":
-        zeners = [("V_Z low", L["zener.v_knee_min"]), ("V_Z high", L["zener.v_knee_max"])]
-    elif kind == "follower":
-        zeners = [("V_Z low", L["zener.v_min"]), ("V_Z high", L["zener.v_max"])]
-    else:
-        zeners = [("", 0.0)]
-    if kind in ("zener", "follower"):
-        r, tr = L["zener.r"], L["zener.r_tol"]
-        resistors = [(f"R -{tr * 100:g} %", r * (1 - tr)), (f"R +{tr * 100:g} %", r * (1 + tr))]
-    else:
-        resistors = [("", 1.0)]
+    zeners = reg.zener_axis(L)
+    resistors = reg.resistor_axis(L)
     rows = list(itertools.product(lines, loads, caps, zeners, resistors))
     return PointSet(
         line=np.array([x[0][1] for x in rows]),
@@ -116,43 +115,23 @@ def corner_points(L: Ledger, kind: str = "zener") -> PointSet:
     )
 
 
-def sample_points(L: Ledger, n: int, seed: int, t_min: float, t_max: float,
-                  kind: str = "zener") -> PointSet:
+def sample_points(L: Ledger, n: int, seed: int, t_min: float, t_max: float, reg) -> PointSet:
     rng = np.random.default_rng(seed)
     tl, th = L["mains.tol_low"], L["mains.tol_high"]
     line = rng.uniform(1 - tl, 1 + th, n)
     load = rng.uniform(L["output.i_min_worst"], L["output.i_max"], n)
     c = L["reservoir.c"] * rng.uniform(1 - L["reservoir.tol"], 1 + L["reservoir.tol"], n)
     temp = rng.uniform(t_min, t_max, n)  # drawn for every kind so samples stay comparable
-    if kind in ("zener", "follower"):
-        vz_nom, tz = L["zener.v_nom"], L["zener.tol"]
-        alpha = L["zener.tempco"] if "zener.tempco" in L else 0.0
-        v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp - 25.0)
-        if kind == "zener":
-            v_z = v_z - L["zener.r_z"] * L["zener.i_zt"]
-        r = L["zener.r"] * rng.uniform(1 - L["zener.r_tol"], 1 + L["zener.r_tol"], n)
-    else:
-        v_z = np.zeros(n)
-        r = np.ones(n)
+    v_z, r = reg.sample_axes(L, rng, n, temp)
     return PointSet(line, load, c, v_z, r, name=[f"sample {k + 1}" for k in range(n)],
                     line_name=["sample"] * n, load_name=["sample"] * n)
 
 
-def _circuit(L: Ledger, pts: PointSet, topology: str, kind: str = "zener") -> Circuit:
-    common = dict(topology=topology, v_rms=L["transformer.v_nl"] * pts.line, freq=L["mains.freq"],
-                  r_s=L["transformer.r_w"], l_s=L["transformer.l_s"], c=pts.c,
-                  esr=L["reservoir.esr"])
-    if kind == "zener":
-        return Circuit(**common, load="zener", r_series=pts.r, v_z0=pts.v_z,
-                       r_z=L["zener.r_z"], i_out=pts.load)
-    if kind == "none":
-        return Circuit(**common, load="current", i_load=pts.load)
-    # Series regulators draw their load current plus a bias; below the dropout the current
-    # falls with the voltage (the engine's regulator load). The follower's base-resistor
-    # current is taken at its design value (a small part of the input current).
-    bias = L["reg.i_q"] if "reg.i_q" in L else L["q.i_r1"]
-    floor = (L["reg.v_out_min"] + L["reg.dropout"]) if "reg.dropout" in L else L["zener.v_min"]
-    return Circuit(**common, load="regulator", i_load=pts.load, i_q=bias, v_dropout_min=floor)
+def _circuit(L: Ledger, pts: PointSet, topology: str, reg) -> Circuit:
+    common = dict(topology=topology_record(topology).engine, v_rms=L["transformer.v_nl"] * pts.line,
+                  freq=L["mains.freq"], r_s=L["transformer.r_w"], l_s=L["transformer.l_s"],
+                  c=pts.c, esr=L["reservoir.esr"])
+    return reg.circuit(L, pts, common)
 
 
 def _concat(a: PointSet, b: PointSet | None) -> PointSet:
@@ -165,21 +144,26 @@ def _concat(a: PointSet, b: PointSet | None) -> PointSet:
 
 
 def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_max: float, *,
-            surge: bool = True, kind: str = "zener") -> CornerResult:
-    corners = corner_points(L, kind)
-    mc = sample_points(L, samples, seed, t_min, t_max, kind) if samples > 0 else None
+            reg, surge: bool = True) -> CornerResult:
+    """Simulate every corner and Monte Carlo sample of the design in one engine call, the
+    switch-on surge too (unless ``surge`` is False), and add the figures derived from them."""
+    corners = corner_points(L, reg)
+    mc = sample_points(L, samples, seed, t_min, t_max, reg) if samples > 0 else None
     pts = _concat(corners, mc)
     # waveforms for the nominal corner and the low-line, full-load, C low corner
     nominal = next(k for k, n in enumerate(corners.name)
                    if n.startswith("nominal mains, full load, C -"))
     trough = max((k for k, n in enumerate(corners.name) if n.startswith("low line, full load, C -")),
                  key=lambda k: (corners.v_z[k], corners.r[k]))
-    ss = simulate(_circuit(L, pts, topology, kind), keep_waveforms=(nominal, trough))
+    ss = simulate(_circuit(L, pts, topology, reg), keep_waveforms=(nominal, trough))
     metrics: dict[str, Any] = {name: getattr(ss, name) for name in (
         "v_c_max", "v_c_min", "v_c_mean", "ripple_pp", "conduction_angle", "i_d_peak",
         "i_d_avg", "i_d_rms", "i_sec_rms", "va_sec", "i_c_rms", "p_source", "p_diodes",
         "p_esr", "p_r_series", "p_zener", "p_out", "p_in", "v_out_max", "v_out_min",
         "v_out_mean", "v_out_pp", "i_z_min", "i_z_max")}
+    # Output current of the rectifier from one diode's average, then the kind's own figures.
+    metrics["i_dc"] = metrics["i_d_avg"] * topology_record(topology).dc_per_diode_average
+    metrics.update(reg.derived_metrics(L, pts, metrics))
     surge_peak = surge_i2t = float("nan")
     surge_ok = False
     if surge:
@@ -189,7 +173,7 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
         one = PointSet(*(getattr(corners, f)[[k]] for f in ("line", "load", "c", "v_z", "r")),
                        name=[corners.name[k]], line_name=[corners.line_name[k]],
                        load_name=[corners.load_name[k]])
-        so = switch_on(_circuit(L, one, topology, kind), periods=SURGE_PERIODS,
+        so = switch_on(_circuit(L, one, topology, reg), periods=SURGE_PERIODS,
                        steps_per_period=SURGE_STEPS)
         surge_peak, surge_i2t, surge_ok = (float(so.i_peak[0]), float(so.i2t[0]),
                                            bool(so.converged[0]))
@@ -200,3 +184,21 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
                    if k in ss.waveforms and bool(ss.converged[k])},
         nominal_index=nominal,
     )
+
+
+def corner_rows(cr: CornerResult) -> list[dict]:
+    """One row per corner: its operating point and the engine's figures there."""
+    rows = []
+    keys = ("v_c_min", "v_c_max", "ripple_pp", "v_out_min", "v_out_max", "v_out_pp", "i_z_min",
+            "i_z_max", "p_zener", "p_r_series", "i_sec_rms", "va_sec", "i_c_rms", "i_d_peak",
+            "i_dc", "p_in", "p_out")
+    for k in range(cr.n_corners):
+        row = {"name": cr.corners.name[k], "converged": bool(cr.converged[k]),
+               "line_factor": float(cr.corners.line[k]), "load": float(cr.corners.load[k]),
+               "c": float(cr.corners.c[k]), "v_z": float(cr.corners.v_z[k]),
+               "r": float(cr.corners.r[k])}
+        for key in keys:
+            v = float(cr.metrics[key][k])
+            row[key] = v if math.isfinite(v) else None
+        rows.append(row)
+    return rows

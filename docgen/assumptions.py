@@ -1,0 +1,45 @@
+"""The assumptions a document states, written from the design they describe."""
+
+from __future__ import annotations
+
+from .trace import Assumption
+
+
+def design_assumptions(reg, n_corners: int, raised: dict[str, str]) -> list[Assumption]:
+    """Assumptions of one rail: the engine's model of this regulator kind at its own number of
+    corners, the transformer and capacitor models, and every floor the engine raised."""
+    out = [
+        Assumption("assume.engine",
+                   f"Ratings and checks come from the waveform engine at {n_corners} worst-case "
+                   "corners: exponential diodes with series resistance, the transformer as an "
+                   "EMF behind its winding resistance and leakage inductance, the capacitor "
+                   f"with its ESR, {reg.load_model}. The hand formulas are shown beside them "
+                   "for review.",
+                   "docgen waveform engine, verified against scipy.integrate.solve_ivp"),
+        Assumption("assume.transformer_model",
+                   "The transformer's EMF is its no-load voltage; its regulation is taken as a "
+                   "resistive drop at rated current (winding resistance), plus an estimated "
+                   "leakage inductance unless the file gives one.", "common practice"),
+        Assumption("assume.no_load_peak",
+                   "Voltage ratings (capacitor, diode reverse voltage) use the no-load peak at "
+                   "high line with the diode drop neglected (conservative).", "common practice"),
+    ]
+    if "zener voltage" in reg.corner_axis_names:
+        out.append(Assumption(
+            "assume.zener_model",
+            "The zener conducts above its knee voltage (the rated voltage at its tolerance "
+            "and temperature extremes) with its dynamic resistance; self-heating of the "
+            "junction is not modelled.",
+            "A. S. Sedra, K. C. Smith, Microelectronic Circuits (from memory)"))
+    axes = ", ".join(("mains range", "capacitance", *reg.corner_axis_names, "load"))
+    out += [
+        Assumption("assume.monte_carlo",
+                   "Monte Carlo draws each tolerance independently and uniformly within its "
+                   f"band ({axes}).", "common practice when the distributions are unknown"),
+        Assumption("assume.not_covered",
+                   "Creepage and clearance distances are not computed; the safety section "
+                   "lists what to check by hand.", "scope of this version"),
+    ]
+    out += [Assumption(f"assume.raised.{name}", f"Raised after the engine verification: "
+                       f"{reason}.", "docgen pipeline") for name, reason in raised.items()]
+    return out

@@ -1,0 +1,61 @@
+"""Bill-of-materials lines of a sized design: the parts every design has, the regulator kind's
+own lines, protection and heat sinks. Each line names its origin (library, fixed, sized) and
+the traced values of its ratings."""
+
+from __future__ import annotations
+
+from ..design import PartChoice
+from ..stages.context import SizingContext
+from ..topology import topology
+from ..trace import Ledger
+from ..units import format_quantity as fq
+
+
+def bom_lines(ctx: SizingContext, L: Ledger, reg) -> list[PartChoice]:
+    def v(i: str) -> str:
+        return fq(L[i], L.values[i].unit, 3)
+
+    def line(ref: str, kind: str, value_text: str, generic: str, ids: tuple[str, ...]
+             ) -> PartChoice:
+        pick = ctx.picks.get(ref)
+        part = pick.part if pick else None
+        qty = f"{pick.quantity} x " if pick and pick.quantity > 1 else ""
+        return PartChoice(
+            ref, kind, value_text,
+            description=(qty + (part.description or part.id)) if part is not None else generic,
+            part_id=part.id if part is not None else "",
+            origin=pick.origin if pick else "sized",
+            reason=pick.reason if pick else "",
+            value_ids=ids)
+
+    topo = topology(ctx.spec.rectifier.topology)
+    lines = [
+        line("T1", "transformer", f"{v('transformer.v_rated')} {v('transformer.va')}",
+             f"mains transformer, secondary {v('transformer.v_rated')} RMS at rated load, "
+             f"at least {v('transformer.va')}, regulation at most {v('transformer.regulation')}",
+             ("transformer.v_rated", "transformer.va", "transformer.regulation")),
+        line(topo.designator, "rectifier", f"{v('rect.v_rrm')} {v('rect.i_f_rating')}",
+             topo.bom_text.format(v=v('rect.v_rrm'), i=v('rect.i_f_rating'), s=v('rect.i_fsm')),
+             ("rect.v_rrm", "rect.i_f_rating", "rect.i_fsm")),
+        line("C1", "capacitor", f"{v('reservoir.c')} {v('reservoir.v_rating')}",
+             f"aluminium electrolytic capacitor, {v('reservoir.c')} (tolerance "
+             f"{v('reservoir.tol')}), at least {v('reservoir.v_rating')}"
+             + (f", ripple current at least {v('engine.cap_ripple_current')}"
+                if "engine.cap_ripple_current" in L else ""),
+             ("reservoir.c", "reservoir.v_rating")),
+    ]
+    lines += reg.bom_lines(ctx, L, line, v)
+    lines.append(line("F1", "fuse", f"{v('fuse.rating')} T",
+                      f"fuse-link, time-lag (T), {v('fuse.rating')}, rated for "
+                      f"{v('mains.v_high')} or more, in the live lead", ("fuse.rating",)))
+    if "bleeder.r" in L:
+        lines.append(line("R9", "resistor", f"{v('bleeder.r')} {v('bleeder.p_rating')}",
+                          f"bleeder resistor {v('bleeder.r')}, at least {v('bleeder.p_rating')}, "
+                          f"across C1", ("bleeder.r", "bleeder.p_rating")))
+    if reg.heat_sink is not None:
+        p_, ref = reg.heat_sink
+        if f"{p_}.theta_sa" in L:
+            lines.append(line(ref, "heatsink", v(f"{p_}.theta_sa"),
+                              f"heat sink, at most {v(f'{p_}.theta_sa')} sink-to-ambient",
+                              (f"{p_}.theta_sa",)))
+    return lines

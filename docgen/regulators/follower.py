@@ -1,0 +1,255 @@
+"""Zener-referenced emitter follower: R1 feeds a zener holding the base of an NPN pass
+transistor; the output is the zener voltage less V_BE.
+
+R1 must pass the minimum zener current plus the largest base current at the ripple trough; the
+transistor dissipates the input-output difference times the load current. Follower relations
+after R. Roscoe, 6.101 Introductory Analog Electronics Laboratory course notes, MIT
+OpenCourseWare, Spring 2007, section 10.2.3, Eqs. 10.40-10.41.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from .. import equations as eq
+from .. import standards
+from ..errors import InfeasibleDesign
+from ..parts.eseries import preferred
+from ..stages.context import Pick, SizingContext, record_fields
+from ..trace import Ledger
+from ..verify.checks import COMMON_CHECKS, OUTPUT_RIPPLE, EngineCheck
+from .base import Regulator, record_output, series_ripple
+from .thermal import size_heat_budget, thermal_chain
+from .zener import (
+    RESISTOR_POWER,
+    ZENER_CURRENT,
+    ZENER_POWER,
+    bias_floor,
+    resistor_axis,
+    zener_floors,
+    zener_resistor_bom,
+)
+
+TITLE = "Emitter-follower regulator"
+INTRO = ("A zener fed through R1 holds the base of an NPN pass transistor; the output is the "
+         "zener voltage less V_BE. R1 must supply the minimum zener current plus the largest "
+         "base current at the ripple trough; the transistor dissipates the input-output "
+         "difference times the load current.")
+
+
+def size_needs(ctx: SizingContext, L: Ledger) -> None:
+    spec = ctx.spec
+    out = spec.output[0]
+    z = out.zener
+    q = out.transistor
+    record_output(ctx, L)
+    record_fields(L, q, (
+        ("q.v_be", r"V_{BE}", "v_be", "V", "Base-emitter voltage"),
+        ("q.h_fe", r"\beta_{min}", "h_fe_min", "", "Least current gain"),
+        ("q.t_j_max", r"T_{J,max}", "t_j_max", "degC", "Maker's junction limit"),
+        ("q.theta_jc", r"\theta_{JC}", "theta_jc", "K/W", "Junction-to-case"),
+        ("q.theta_ja", r"\theta_{JA}", "theta_ja", "K/W", "Junction-to-ambient"),
+        ("q.theta_cs", r"\theta_{CS}", "theta_cs", "K/W", "Case-to-sink"),
+    ))
+    L.calc("zener.v_nom", eq.SUM2, r"V_Z", "V", "Zener voltage (output plus V_BE)",
+           {"a": "output.v_nom", "b": "q.v_be"}, lambda a, b: a + b)
+    record_fields(L, z, (
+        ("zener.tol", r"t_Z", "tolerance", "%", "Zener voltage tolerance"),
+        ("zener.i_zk", r"I_{ZK}", "knee_current", "A", "Zener knee current"),
+        ("zener.k_zk", r"k_{ZK}", "min_current_factor", "", "Minimum zener current factor"),
+        ("zener.r_z", r"r_z", "dynamic_resistance", "ohm", "Zener dynamic resistance"),
+    ))
+    L.given("output.headroom", r"V_{hr}", out.headroom, "V", "Headroom across R1 at the trough",
+            defaulted="headroom" not in out.model_fields_set)
+    L.calc("zener.v_max", eq.BOUND_HIGH, r"V_{Z,max}", "V", "Highest zener voltage",
+           {"x": "zener.v_nom", "t": "zener.tol"}, lambda x, t: x * (1 + t))
+    L.calc("zener.v_min", eq.BOUND_LOW, r"V_{Z,min}", "V", "Lowest zener voltage",
+           {"x": "zener.v_nom", "t": "zener.tol"}, lambda x, t: x * (1 - t))
+    L.calc("zener.i_min", eq.ZENER_IZMIN, r"I_{Z,min}", "A", "Minimum zener current",
+           {"k": "zener.k_zk", "i": "zener.i_zk"}, lambda k, i: k * i)
+    L.calc("q.i_b_max", eq.BASE_CURRENT, r"I_{B,max}", "A", "Largest base current",
+           {"i": "output.i_max", "b": "q.h_fe"}, lambda i, b: i / (b + 1))
+    L.calc("regulator.v_in_min_needed", eq.SUM2, r"V_{in,min}", "V",
+           "Input needed at the trough", {"a": "zener.v_max", "b": "output.headroom"},
+           lambda a, b: a + b)
+    L.calc("q.i_r1", eq.SUM2, r"I_{R1}", "A", "Current R1 must pass at the trough",
+           {"a": "zener.i_min", "b": "q.i_b_max"}, lambda a, b: a + b)
+    L.calc("regulator.i_in_design", eq.SUM2, r"I_{in}", "A", "Input current at full load",
+           {"a": "output.i_max", "b": "q.i_r1"}, lambda a, b: a + b)
+    L.calc("regulator.r_target", eq.OHM, r"R_{1,target}", "ohm", "R1 at the needed trough",
+           {"v": "output.headroom", "i": "q.i_r1"}, lambda v, i: v / i)
+    L.calc("regulator.ripple_in_allowed", eq.RIPPLE_THROUGH_DIVIDER, r"V_{r,in,out}", "V",
+           "Input ripple the output ripple limit allows",
+           {"o": "output.ripple_max", "R": "regulator.r_target", "z": "zener.r_z"},
+           lambda o, R, z: o * (R + z) / z)
+    L.calc("output.v_max_est", eq.DIFF2, r"V_{out,max}", "V", "Highest output voltage",
+           {"a": "zener.v_max", "b": "q.v_be"}, lambda a, b: a - b)
+    L.calc("output.v_min_est", eq.DIFF2, r"V_{out,min}", "V", "Lowest output voltage",
+           {"a": "zener.v_min", "b": "q.v_be"}, lambda a, b: a - b)
+
+
+
+def size_follower(ctx: SizingContext, L: Ledger) -> None:
+    L.calc("q.r1_calc", eq.FOLLOWER_R1, r"R_{1,calc}", "ohm", "Largest base resistor (hand)",
+           {"v": "reservoir.valley_low", "z": "zener.v_max", "i": "q.i_r1"},
+           lambda v, z, i: (v - z) / i)
+    ceiling = ctx.floor(L, "resistor_ceiling", "zener.r_ceiling", r"R_{ceil}", "ohm",
+                        "Base-resistor ceiling")
+    if ceiling:
+        L.calc("q.r1_max", eq.MIN2, r"R_{1,max}", "ohm", "Largest base resistor",
+               {"a": "q.r1_calc", "b": ceiling}, lambda a, b: min(a, b))
+    else:
+        L.calc("q.r1_max", eq.IDENT, r"R_{1,max}", "ohm", "Largest base resistor",
+               {"x": "q.r1_calc"}, lambda x: x)
+    if L["q.r1_max"] <= 0:
+        raise InfeasibleDesign("the capacitor trough is below the zener voltage of the "
+                               "follower: a larger secondary is needed")
+    L.calc("zener.r", eq.PREFERRED_DOWN, r"R_1", "ohm", "Base resistor R1 (E24, rounded down)",
+           {"x": "q.r1_max"}, lambda x: preferred(x, "E24", "down"))
+    out = ctx.spec.output[0]
+    L.given("zener.r_tol", r"t_R", out.resistor_tolerance, "%", "R1 tolerance",
+            defaulted="resistor_tolerance" not in out.model_fields_set)
+    L.calc("zener.i_z_max", eq.INPUT_CURRENT, r"I_{Z,max}", "A",
+           "Zener current with no base current (high line, no load)",
+           {"v": "reservoir.v_mean_high", "z": "zener.v_min", "R": "zener.r"},
+           lambda v, z, R: (v - z) / R)
+    L.calc("zener.p", eq.POWER_VI, r"P_{Z,max}", "W", "Zener dissipation, worst case",
+           {"v": "zener.v_max", "i": "zener.i_z_max"}, lambda v, i: v * i)
+    L.calc("zener.r_p", eq.POWER_V2R, r"P_{R1,max}", "W", "R1 dissipation, worst case",
+           {"a": "reservoir.v_mean_high", "b": "zener.v_min", "R": "zener.r"},
+           lambda a, b, R: (a - b) ** 2 / R)
+    m = ctx.spec.margins
+    L.given("margins.zener_power", r"k_{Z,P}", m.zener_power_derating, "%",
+            "Zener power derating", defaulted="zener_power_derating" not in m.model_fields_set)
+    L.given("margins.resistor_power", r"k_{R,P}", m.resistor_power_derating, "%",
+            "Resistor power derating",
+            defaulted="resistor_power_derating" not in m.model_fields_set)
+    for vid, need, steps, sym in (("zener.p_rating", "zener.p", standards.ZENER_POWERS,
+                                   r"P_{Z,rated}"),
+                                  ("zener.r_p_rating", "zener.r_p", standards.RESISTOR_POWERS,
+                                   r"P_{R1,rated}")):
+        k = "margins.zener_power" if vid.startswith("zener.p") else "margins.resistor_power"
+        L.calc(vid + "_calc", eq.DERATED_NEED, sym.replace("rated", "calc"), "W",
+               "Rating needed (hand formula)", {"x": need, "k": k}, lambda x, k: x / k)
+        fname = "zener_power" if vid == "zener.p_rating" else "resistor_power"
+        floor = ctx.floor(L, fname, vid + "_floor", sym.replace("rated", "floor"), "W",
+                          "Rating floor")
+        if floor:
+            L.calc(vid + "_needed", eq.MAX2, sym.replace("rated", "req"), "W", "Rating needed",
+                   {"a": vid + "_calc", "b": floor}, lambda a, b: max(a, b))
+        else:
+            L.calc(vid + "_needed", eq.IDENT, sym.replace("rated", "req"), "W", "Rating needed",
+                   {"x": vid + "_calc"}, lambda x: x)
+        L.calc(vid, eq.PICKED, sym, "W", "Rating (standard class)", {"x": vid + "_needed"},
+               lambda x, s=steps: standards.next_at_or_above(x, s))
+        L.calc(vid.replace("rating", "allowed"), eq.SCALE, sym.replace("rated", "allow"), "W",
+               "Dissipation allowed (derated)", {"v": vid, "k": k}, lambda v, k: v * k)
+    L.calc("q.v_ce_max", eq.DIFF2, r"V_{CE,max}", "V", "Largest collector-emitter voltage",
+           {"a": "reservoir.v_max", "b": "output.v_min_est"}, lambda a, b: a - b)
+    L.calc("q.v_ce_hand", eq.DIFF2, r"V_{CE,hi}", "V", "Collector-emitter voltage at high line",
+           {"a": "reservoir.v_mean_high", "b": "output.v_min_est"}, lambda a, b: a - b)
+    L.calc("q.p_hand", eq.POWER_VI, r"P_Q", "W", "Pass transistor dissipation (high line, hand)",
+           {"v": "q.v_ce_hand", "i": "output.i_max"}, lambda v, i: v * i)
+    size_heat_budget(ctx, L, "q", "Q1", "pass transistor")
+    ctx.picks["DZ1"] = Pick("DZ1", "zener", "sized", reason="standard power class")
+    ctx.picks["R1"] = Pick("R1", "resistor", "sized", reason="E24 value at or below the largest")
+    ctx.picks.setdefault("Q1", Pick("Q1", "transistor", "sized",
+                                    reason="typical power-transistor figures"))
+
+
+
+
+class Follower(Regulator):
+    kind = "follower"
+    title = TITLE
+    intro = INTRO
+    load_model = ("the follower as its load current plus R1's design current while the "
+                  "input stays above the zener voltage")
+    drawing = "follower"
+    refs = ("R1", "DZ1", "Q1")
+    writes = (*Regulator.writes, "zener.", "q.", "margins.zener_power",
+              "margins.resistor_power", "margins.t_j_design")
+    heat_sink = ("q", "HS2")
+    corner_axis_names = ("zener voltage", "base resistor")
+    engine_checks = (
+        ZENER_CURRENT, ZENER_POWER, RESISTOR_POWER,
+        EngineCheck("check.transistor_junction", "Pass-transistor junction <= design limit",
+                    "t_j", "max", "margins.t_j_design", r"T_J", "degC", "Q1",
+                    "margins.junction_max"),
+        OUTPUT_RIPPLE, *COMMON_CHECKS)
+
+    def needs(self, ctx, L):
+        size_needs(ctx, L)
+
+    def size(self, ctx, L):
+        series_ripple(ctx, L)
+        size_follower(ctx, L)
+
+    def zener_axis(self, L):
+        return [("V_Z low", L["zener.v_min"]), ("V_Z high", L["zener.v_max"])]
+
+    def resistor_axis(self, L):
+        return resistor_axis(L)
+
+    def sample_axes(self, L, rng, n, temp):
+        vz_nom, tz = L["zener.v_nom"], L["zener.tol"]
+        alpha = L["zener.tempco"] if "zener.tempco" in L else 0.0
+        v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp - 25.0)
+        r = L["zener.r"] * rng.uniform(1 - L["zener.r_tol"], 1 + L["zener.r_tol"], n)
+        return v_z, r
+
+    def circuit(self, L, pts, common):
+        from .base import regulator_load
+
+        # R1's current is taken at its design value (a small part of the input current).
+        return regulator_load(L, common, pts, L["q.i_r1"], L["zener.v_min"])
+
+    def derived_metrics(self, L, pts, m):
+        beta = L["q.h_fe"]
+        i_b = pts.load / (beta + 1)
+        out = {}
+        i_r1 = (m["v_c_min"] - pts.v_z) / pts.r
+        out["i_z_min"] = i_r1 - i_b
+        i_r1_mean = (m["v_c_mean"] - pts.v_z) / pts.r
+        out["p_zener"] = pts.v_z * np.maximum(i_r1_mean - i_b, 0.0)
+        out["p_r_series"] = (m["v_c_mean"] - pts.v_z) ** 2 / pts.r
+        v_out = pts.v_z - L["q.v_be"]
+        out["p_q"] = (m["v_c_mean"] - v_out) * pts.load
+        out["t_j"] = L["env.t_max"] + out["p_q"] * thermal_chain(L, "q")
+        out["v_out_pp"] = m["ripple_pp"] * L["zener.r_z"] / (pts.r + L["zener.r_z"])
+        out["p_out"] = v_out * pts.load
+        return out
+
+    def hand_checks(self, ctx, L, w):
+        from ..verify.checks import make_check
+
+        return [
+            make_check(L, "check.output_high", "Highest output voltage <= upper limit",
+                       "output.v_max_est", "output.v_upper_limit", "max", "zener high", w,
+                       requirement="output[0].tolerance"),
+            make_check(L, "check.output_low", "Lowest output voltage >= lower limit",
+                       "output.v_min_est", "output.v_lower_limit", "min", "zener low", w,
+                       requirement="output[0].tolerance"),
+        ]
+
+    def trough_short(self, v):
+        # a zener starved of current at some corner: the trough is below what R1 needs
+        return v.has("check.zener_current") and v.worst("check.zener_current")[0] < 0
+
+    def raise_bias_floor(self, ctx, L, v):
+        return bias_floor(ctx, L, v, "q.i_b_max")
+
+    def raise_part_floors(self, ctx, L, v):
+        from .three_terminal import junction_floor
+
+        changed = zener_floors(ctx, L, v)
+        return junction_floor(ctx, L, v, "check.transistor_junction", "p_q") or changed
+
+    def bom_lines(self, ctx, L, line, v):
+        return zener_resistor_bom(L, line, v) + [
+            line("Q1", "transistor", f"NPN {v('q.v_ce_max')}",
+                 f"NPN power transistor, V_CEO at least {v('q.v_ce_max')}, I_C at least "
+                 f"{v('output.i_max')}, h_FE at least {v('q.h_fe')}", ("q.v_ce_max",))]
+
+
+KIND = Follower()

@@ -1,0 +1,194 @@
+"""Fixed three-terminal regulator: needs its dropout above the output at the ripple trough,
+passes the ripple reduced by its ripple rejection and dissipates the input-output difference
+times the load current (P = (V_in - V_out) I_out + V_in I_Q: power balance, common practice).
+"""
+
+from __future__ import annotations
+
+from .. import equations as eq
+from ..stages.context import Pick, SizingContext
+from ..trace import Ledger
+from ..verify.checks import COMMON_CHECKS, OUTPUT_RIPPLE, EngineCheck
+from .base import Regulator, record_output, regulator_load, series_ripple
+from .thermal import size_heat_budget, thermal_chain
+
+TITLE = "Three-terminal regulator"
+INTRO = ("A fixed three-terminal regulator needs its dropout above the output at the ripple "
+         "trough; it passes the ripple reduced by its ripple rejection and dissipates the "
+         "input-output difference times the load current.")
+
+
+def regulator_data(ctx: SizingContext, L: Ledger, adjustable: bool = False):
+    """Three-terminal regulator data: from the library part, or the file's typical figures."""
+    # (typical datasheet figures are common practice; a library part states its own)
+    spec = ctx.spec
+    lin = spec.output[0].linear
+    part = None
+    if lin.part:
+        part = ctx.fixed_part("regulator", lin.part, "output[0].linear.part")
+        ctx.picks["U1"] = Pick("U1", "regulator", "fixed", part, f"{part.id} named in the file")
+    elif ctx.library is not None:
+        from ..parts.select import select_regulator
+
+        sel = select_regulator(
+            ctx.library.regulators, output_voltage=spec.output[0].voltage,
+            current=spec.output[0].load_max, input_voltage_max=0.0 + 1e-3,
+            kind="adjustable" if adjustable else "fixed")
+        if sel.part is not None:
+            part = sel.part
+            ctx.picks["U1"] = Pick("U1", "regulator", "library", part, sel.reason, sel.generic)
+    src = f"library part {part.id}" if part is not None else ""
+    explicit = lin.model_fields_set
+
+    def given(vid, sym, attr, lib_value, unit, title):
+        if part is not None and lib_value is not None:
+            L.given(vid, sym, lib_value, unit, title, source=src)
+        else:
+            L.given(vid, sym, getattr(lin, attr), unit, title, defaulted=attr not in explicit)
+
+    p = part
+    given("reg.dropout", r"V_{DO}", "dropout", p.dropout if p else None, "V", "Dropout voltage")
+    given("reg.tol", r"t_{reg}", "tolerance", p.tolerance if p else None, "%",
+          "Output / reference tolerance")
+    given("reg.rr", r"RR", "ripple_rejection", p.ripple_rejection_db if p else None, "dB",
+          "Ripple rejection")
+    given("reg.v_in_max", r"V_{in,max}", "v_in_max",
+          (p.v_in_max if p and p.v_in_max else None), "V", "Highest input voltage")
+    given("reg.t_j_max", r"T_{J,max}", "t_j_max", p.t_j_max_c if p else None, "degC",
+          "Maker's junction limit")
+    given("reg.theta_jc", r"\theta_{JC}", "theta_jc", p.r_theta_jc if p else None, "K/W",
+          "Junction-to-case")
+    given("reg.theta_ja", r"\theta_{JA}", "theta_ja", p.r_theta_ja if p else None, "K/W",
+          "Junction-to-ambient (no heat sink)")
+    L.given("reg.theta_cs", r"\theta_{CS}", lin.theta_cs, "K/W", "Case-to-sink",
+            defaulted="theta_cs" not in explicit)
+    if not adjustable:
+        given("reg.i_q", r"I_Q", "quiescent_current", p.i_q if p and p.i_q is not None else None,
+              "A", "Quiescent (ground) current")
+    else:
+        given("reg.v_ref", r"V_{ref}", "reference", p.reference_voltage if p else None, "V",
+              "Reference voltage")
+        given("reg.i_adj", r"I_{ADJ}", "adjust_current",
+              p.adjust_current if p and p.adjust_current is not None else None, "A",
+              "Adjust-pin current")
+        given("reg.i_min_load", r"I_{min}", "min_load",
+              p.min_load_current if p and p.min_load_current is not None else None, "A",
+              "Least load the regulator needs")
+    return part
+
+
+
+
+def set_output(ctx: SizingContext, L: Ledger) -> None:
+    """The output voltage as set: the regulator's own voltage (a fixed part)."""
+    L.calc("reg.v_out", eq.IDENT, r"V_{out,set}", "V", "Output voltage as set",
+           {"x": "output.v_nom"}, lambda x: x)
+
+
+def regulator_needs(ctx: SizingContext, L: Ledger) -> None:
+    """Output window, trough and input current of a three-terminal regulator."""
+    L.calc("reg.v_out_max", eq.BOUND_HIGH, r"V_{out,max}", "V", "Highest output voltage",
+           {"x": "reg.v_out", "t": "reg.tol"}, lambda x, t: x * (1 + t))
+    L.calc("reg.v_out_min", eq.BOUND_LOW, r"V_{out,min}", "V", "Lowest output voltage",
+           {"x": "reg.v_out", "t": "reg.tol"}, lambda x, t: x * (1 - t))
+    L.calc("regulator.v_in_min_needed", eq.SUM2, r"V_{in,min}", "V",
+           "Input needed at the trough (output plus dropout)",
+           {"a": "reg.v_out_max", "b": "reg.dropout"}, lambda a, b: a + b)
+    L.calc("regulator.i_in_design", eq.SUM2, r"I_{in}", "A",
+           "Regulator input current at full load", {"a": "output.i_max", "b": "reg.i_q"},
+           lambda a, b: a + b)
+    L.calc("regulator.ripple_in_allowed", eq.RIPPLE_RR_ALLOWED, r"V_{r,in,out}", "V",
+           "Input ripple the output ripple limit allows",
+           {"o": "output.ripple_max", "r": "reg.rr"}, lambda o, r: o * 10 ** (r / 20))
+
+
+def junction_floor(ctx, L, v, check_id: str, metric: str) -> bool:
+    """Raise the heat budget to the dissipation the engine found at the hottest corner."""
+    from ..units import format_quantity as fq
+
+    if not (v.short(check_id, "margins.t_j_design", "max") and v.has_metric(metric)):
+        return False
+    p = v.corner_max(metric)
+    return ctx.floors.raise_to(
+        "heat_power", p / (1 - v.band), f"the engine found {fq(p, 'W')} dissipated in "
+        "the regulator at the hottest corner, more than the hand estimate")
+
+
+class ThreeTerminal(Regulator):
+    kind = "three-terminal"
+    title = TITLE
+    intro = INTRO
+    load_model = ("the regulator as its load current plus its quiescent current while the "
+                  "input stays above output plus dropout")
+    drawing = "three-terminal"
+    refs = ("U1",)
+    writes = (*Regulator.writes, "reg.", "margins.t_j_design")
+    heat_sink = ("reg", "HS1")
+    engine_checks = (
+        EngineCheck("check.dropout", "Capacitor trough >= output plus dropout", "v_c_min", "min",
+                    "regulator.v_in_min_needed", r"V_{C,min}", "V", "U1", ""),
+        EngineCheck("check.regulator_junction", "Regulator junction <= design limit", "t_j",
+                    "max", "margins.t_j_design", r"T_J", "degC", "U1", "margins.junction_max"),
+        OUTPUT_RIPPLE, *COMMON_CHECKS)
+
+    def needs(self, ctx, L):
+        record_output(ctx, L)
+        regulator_data(ctx, L)
+        self.set_output(ctx, L)
+        regulator_needs(ctx, L)
+
+    def set_output(self, ctx, L):
+        set_output(ctx, L)
+
+    def size(self, ctx, L):
+        series_ripple(ctx, L)
+        L.calc("reg.p_hand", eq.REG_POWER, r"P_{reg}", "W",
+               "Regulator dissipation at high line, full load (hand)",
+               {"v": "reservoir.v_mean_high", "o": "reg.v_out_min", "i": "output.i_max",
+                "q": "reg.i_q"}, lambda v, o, i, q: (v - o) * i + v * q)
+        size_heat_budget(ctx, L, "reg", "U1", "regulator")
+        ctx.picks.setdefault("U1", Pick("U1", "regulator", "sized",
+                                        reason="typical three-terminal regulator figures"))
+
+    def circuit(self, L, pts, common):
+        return regulator_load(L, common, pts, L["reg.i_q"], L["reg.v_out_min"] + L["reg.dropout"])
+
+    def derived_metrics(self, L, pts, m):
+        rr = 10 ** (-L["reg.rr"] / 20)
+        p_reg = (m["v_c_mean"] - L["reg.v_out_min"]) * pts.load + m["v_c_mean"] * L["reg.i_q"]
+        return {"v_out_pp": m["ripple_pp"] * rr, "p_reg": p_reg,
+                "t_j": L["env.t_max"] + p_reg * thermal_chain(L, "reg"),
+                "p_out": L["reg.v_out"] * pts.load}
+
+    def hand_checks(self, ctx, L, w):
+        from ..verify.checks import make_check
+
+        return [
+            make_check(L, "check.regulator_input", "Highest input voltage <= regulator rating",
+                       "reservoir.v_max", "reg.v_in_max", "max", "high line, no load", w,
+                       ref="U1"),
+            make_check(L, "check.output_high", "Highest output voltage <= upper limit",
+                       "reg.v_out_max", "output.v_upper_limit", "max",
+                       "regulator tolerance, high side", w, requirement="output[0].tolerance"),
+            make_check(L, "check.output_low", "Lowest output voltage >= lower limit",
+                       "reg.v_out_min", "output.v_lower_limit", "min",
+                       "regulator tolerance, low side", w, requirement="output[0].tolerance"),
+        ]
+
+    def trough_short(self, v):
+        return v.short("check.dropout", "regulator.v_in_min_needed", "min")
+
+    def raise_part_floors(self, ctx, L, v):
+        return junction_floor(ctx, L, v, "check.regulator_junction", "p_reg")
+
+    def describe(self, v) -> str:
+        return f"fixed three-terminal regulator {v('reg.v_out')}"
+
+    def bom_lines(self, ctx, L, line, v):
+        return [line("U1", "regulator", v("reg.v_out"),
+                     f"{self.describe(v)}, at least {v('output.i_max')}, dropout at most "
+                     f"{v('reg.dropout')}, input rating at least {v('reservoir.v_max')}",
+                     ("reg.v_out", "reg.dropout"))]
+
+
+KIND = ThreeTerminal()

@@ -1,0 +1,156 @@
+"""Checks of a verified design: the engine's worst-corner figures traced and compared with
+their limits, the checks on hand figures, capacitor life, and the protection sized from the
+engine's currents."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from .. import equations as eq
+from ..design import Check
+from ..errors import InfeasibleDesign
+from ..stages import protection
+from ..stages.context import SizingContext
+from ..topology import topology
+from ..trace import Ledger
+from .checks import make_check
+from .corners import CornerResult, model_inputs
+from .worst import worst_corner
+
+# Ids the evaluation writes (stage "corners"): engine figures and capacitor life.
+WRITES = ("engine.", "reservoir.life", "reservoir.t_core", "reservoir.r_th", "env.required_life")
+LIFE_CAP = 15 * 8766 * 3600.0  # s; 15 years of 8766 h
+
+
+def designator(spec, ref: str) -> str:
+    """Designators that depend on the topology: RECT is BR1 for a bridge, D1 otherwise."""
+    return topology(spec.rectifier.topology).designator if ref == "RECT" else ref
+
+
+def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[Check]:
+    """Trace the worst-corner engine figures and turn them into checks."""
+    spec = ctx.spec
+    w = spec.margins.warn_band
+    L.stage = "corners"
+    checks: list[Check] = []
+    inputs = model_inputs(L)
+    for chk in reg.engine_checks:
+        if chk.limit_id not in L:
+            continue
+        value, k = worst_corner(cr, chk)
+        if k < 0:
+            raise InfeasibleDesign(
+                f"the waveform engine did not converge at any corner for {chk.title.lower()}; "
+                "no number is reported that was not converged to")
+        vid = f"engine.{chk.id.split('.', 1)[1]}"
+        L.measured(vid, eq.ENGINE, chk.symbol, value, chk.unit,
+                   f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)",
+                   inputs, cr.corners.name[k])
+        checks.append(make_check(L, chk.id, chk.title, vid, chk.limit_id, chk.sense,
+                                 cr.corners.name[k], w, ref=designator(spec, chk.ref),
+                                 requirement=chk.requirement))
+    # A corner the engine could not solve is a failing check of its own, never a number.
+    bad = [cr.corners.name[k] for k in range(cr.n_corners) if not cr.converged[k]]
+    L.given("engine.corners_not_converged", r"N_{nc}", float(len(bad)), "",
+            "Corners where the engine did not converge",
+            source="waveform engine" + (": " + "; ".join(bad) if bad else ""))
+    L.given("engine.corners_allowed", r"N_{nc,max}", 0.0, "", "Corners allowed to fail",
+            source="every corner must be solved")
+    checks.append(make_check(L, "check.engine_converged", "Every corner solved by the engine",
+                             "engine.corners_not_converged", "engine.corners_allowed", "max",
+                             (f"{len(bad)} corners, first: {bad[0]}" if bad else "all corners"),
+                             0.0))
+    # Switch-on surge through the bridge.
+    if cr.surge_converged:
+        L.measured("engine.surge_peak", eq.ENGINE_SWITCH_ON, r"I_{surge}", cr.surge_peak, "A",
+                   "Switch-on surge peak (engine)", model_inputs(L), "high line, C +tol")
+        checks.append(make_check(L, "check.bridge_surge", "Switch-on surge <= I_FSM",
+                                 "engine.surge_peak", "rect.i_fsm", "max",
+                                 "switch-on at the crest, high line, C +tol", w,
+                                 ref=designator(spec, "RECT")))
+    # Nominal-corner figures for the summary: efficiency, VA, ripple current.
+    k = cr.nominal_index
+    where = cr.corners.name[k]
+    for metric, vid, sym, unit, title in (
+        ("p_in", "engine.p_in_nominal", r"P_{in}", "W", "Input power (engine, nominal)"),
+        ("p_out", "engine.p_out_nominal", r"P_{out}", "W", "Output power (engine, nominal)"),
+        ("va_sec", "engine.va_nominal", r"S_{sec}", "VA", "Secondary VA drawn (engine, nominal)"),
+        ("i_d_peak", "engine.i_d_peak_nominal", r"I_{D,pk}", "A",
+         "Repetitive peak diode current (engine, nominal)"),
+        ("conduction_angle", "engine.conduction_nominal", r"\theta", "rad",
+         "Conduction angle per pulse (engine, nominal)"),
+    ):
+        L.measured(vid, eq.ENGINE, sym, float(cr.metrics[metric][k]), unit, title, model_inputs(L),
+                   where)
+    L.calc("engine.efficiency", eq.EFFICIENCY, r"\eta", "%", "Efficiency at nominal, full load",
+           {"o": "engine.p_out_nominal", "i": "engine.p_in_nominal"}, lambda o, i: o / i)
+    checks += hand_checks(ctx, L, cr, reg)
+    return checks
+
+
+def hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[Check]:
+    spec = ctx.spec
+    w = spec.margins.warn_band
+    out = [
+        make_check(L, "check.cap_voltage", "Capacitor voltage <= derated rating",
+                   "reservoir.v_max", "reservoir.v_allowed", "max", "high line, no load", w,
+                   ref="C1", requirement="margins.capacitor_voltage_derating"),
+        make_check(L, "check.bridge_piv", "Diode reverse voltage <= derated V_RRM", "rect.piv",
+                   "rect.v_allowed", "max", "high line, no load", w, ref=designator(spec, "RECT"),
+                   requirement="margins.diode_voltage_derating"),
+    ]
+    out += reg.hand_checks(ctx, L, w)
+    if "reservoir.life_rated" in L and spec.environment.required_life is not None:
+        L.stage = "corners"
+        L.given("env.required_life", r"L_{req}", spec.environment.required_life, "h",
+                "Required capacitor life")
+        L.given("reservoir.r_th", r"R_{th}", spec.reservoir.thermal_resistance, "K/W",
+                "Capacitor thermal resistance",
+                defaulted="thermal_resistance" not in spec.reservoir.model_fields_set)
+        i_c = float(np.nanmax(cr.corner_metric("i_c_rms")))
+        L.measured("engine.i_c_rms_max", eq.ENGINE, r"I_{C,rms}", i_c, "A",
+                   "Largest capacitor ripple current (engine)", model_inputs(L), "worst corner")
+        L.calc("reservoir.t_core", eq.CAP_CORE_TEMP, r"T_{core}", "degC",
+               "Capacitor core temperature at the hottest ambient",
+               {"t": "env.t_max", "i": "engine.i_c_rms_max", "e": "reservoir.esr",
+                "r": "reservoir.r_th"}, lambda t, i, e, r: t + i * i * e * r)
+        L.given("reservoir.life_cap", r"L_{cap}", LIFE_CAP, "h",
+                "Longest life the 10-degree rule is trusted for",
+                source="common practice: about 15 years")
+        L.calc("reservoir.life", eq.CAP_LIFE, r"L_C", "h", "Capacitor life expectancy",
+               {"l": "reservoir.life_rated", "a": "reservoir.life_temp", "t": "reservoir.t_core",
+                "m": "reservoir.life_cap"},
+               lambda l, a, t, m: capacitor_life(l, a, t, m))
+        out.append(make_check(L, "check.cap_life", "Capacitor life >= required life",
+                              "reservoir.life", "env.required_life", "min",
+                              "hottest ambient, largest ripple current", w, ref="C1",
+                              requirement="environment.required_life"))
+    return out
+
+
+def capacitor_life(rated: float, rated_temp_c: float, temp_c: float, cap: float) -> float:
+    """The 10-degree rule: life doubles for every 10 K below the rated temperature, capped."""
+    return min(rated * 2 ** ((rated_temp_c - temp_c) / 10.0), cap)
+
+
+def protection_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]:
+    """Fuse and bleeder, sized after the engine has given the operating and surge currents."""
+    w = ctx.spec.margins.warn_band
+    nominal = np.array([n.startswith("nominal mains, full load") for n in cr.corners.name])
+    i_sec = float(np.nanmax(np.where(nominal, cr.corner_metric("i_sec_rms"), np.nan)))
+    L.stage = "protection"
+    protection.size_protection(ctx, L, i_sec, cr.surge_i2t)
+    out = [make_check(L, "check.fuse_operating", "Fuse rating >= k_F x operating primary current",
+                      "fuse.i_pri_margin", "fuse.rating", "max", "nominal mains, full load", w,
+                      ref="F1", requirement="protection.fuse_factor")]
+    if "fuse.i2t" in L and "fuse.i2t_surge" in L:
+        out.append(make_check(L, "check.fuse_surge", "Switch-on I2t <= fuse melting I2t",
+                              "fuse.i2t_surge", "fuse.i2t", "max", "switch-on at the crest", w,
+                              ref="F1"))
+    if "bleeder.time" in L:
+        out.append(make_check(L, "check.bleeder_time", "Discharge time <= allowed time",
+                              "bleeder.time", "bleeder.t", "max", "high line, no load, C +tol",
+                              w, ref="R9", requirement="protection.discharge_time"))
+    return out
+
+

@@ -1,0 +1,109 @@
+"""The refine loop's rules: where the engine finds a sized part short at some corner (or inside
+the warning band), raise a floor for that part with the reason, so the next sizing pass
+chooses a larger one. Fixed parts are never changed; their shortfall stays a failing check.
+
+The rules that concern the transformer, the capacitor and the rectifier live here; each
+regulator kind raises its own floors (``Regulator.raise_bias_floor`` and
+``raise_part_floors``).
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from .. import standards
+from ..stages.context import SizingContext
+from ..trace import Ledger
+from ..units import format_quantity as fq
+from .corners import CornerResult
+from .worst import worst_corner
+
+# Above this regulation a headroom shortfall is met with a larger transformer, not a higher
+# secondary (common practice: small transformers lose their headroom in winding resistance).
+STIFF_REGULATION = 0.15
+
+
+class PassVerdict:
+    """The engine's worst figures of one pass, for the floor rules."""
+
+    def __init__(self, cr: CornerResult, L: Ledger, checks: tuple, band: float):
+        self.cr = cr
+        self.L = L
+        self.checks = {c.id: c for c in checks}
+        self.band = band
+
+    def has(self, check_id: str) -> bool:
+        return check_id in self.checks
+
+    def has_metric(self, metric: str) -> bool:
+        return metric in self.cr.metrics
+
+    def corner_max(self, metric: str) -> float:
+        return float(np.nanmax(self.cr.corner_metric(metric)))
+
+    def worst(self, check_id: str) -> tuple[float, str]:
+        value, k = worst_corner(self.cr, self.checks[check_id])
+        return value, self.cr.corners.name[k] if k >= 0 else ""
+
+    def short(self, check_id: str, limit_id: str, sense: str) -> bool:
+        if limit_id not in self.L or check_id not in self.checks:
+            return False
+        value, _ = self.worst(check_id)
+        limit = self.L[limit_id]
+        if sense == "max":
+            return math.isfinite(value) and value > limit * (1 - self.band)
+        return math.isfinite(value) and value < limit * (1 + self.band)
+
+
+def raise_floors(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> bool:
+    """Raise floors for sized parts that the engine found short; True if anything changed."""
+    spec = ctx.spec
+    fixed_t = bool(spec.transformer.part) or spec.transformer.secondary is not None
+    band = spec.margins.warn_band
+    v = PassVerdict(cr, L, reg.engine_checks, band)
+    changed = False
+
+    if not fixed_t and v.short("check.transformer_current", "transformer.i_rated", "max"):
+        i, where = v.worst("check.transformer_current")
+        need = i * L["transformer.v_rated"] / (1 - band)
+        changed |= ctx.floors.raise_to(
+            "va", need, f"the engine found {fq(i, 'A')} RMS in the secondary at {where}, above "
+            f"the {fq(L['transformer.i_rated'], 'A')} rating of a {fq(L['transformer.va'], 'VA')}"
+            " transformer")
+    if not fixed_t and reg.trough_short(v):
+        changed |= _raise_transformer_for_trough(ctx, L)
+    else:
+        changed |= reg.raise_bias_floor(ctx, L, v)
+    if spec.reservoir.capacitance is None and not spec.reservoir.part and v.short(
+            "check.output_ripple", "output.ripple_max", "max"):
+        ripple, where = v.worst("check.output_ripple")
+        need = L["reservoir.c_required"] * ripple / L["output.ripple_max"] * 1.05
+        changed |= ctx.floors.raise_to(
+            "capacitance", need, f"the engine found {fq(ripple, 'V')} output ripple at {where}")
+    changed |= reg.raise_part_floors(ctx, L, v)
+    if not spec.rectifier.part and v.short("check.bridge_current", "rect.i_allowed", "max"):
+        i, where = v.worst("check.bridge_current")
+        changed |= ctx.floors.raise_to(
+            "bridge_current", i / spec.margins.diode_current_derating / (1 - band),
+            f"the engine found {fq(i, 'A')} average output current at {where}")
+    return changed
+
+
+def _raise_transformer_for_trough(ctx: SizingContext, L: Ledger) -> bool:
+    """Too little voltage at the trough: a stiffer transformer, or a higher secondary."""
+    v = L["transformer.v_rated"]
+    va = L["transformer.va"]
+    stiffer = next((s for s in standards.TRANSFORMER_VA if s > va * (1 + 1e-9)), None)
+    if L["transformer.regulation"] > STIFF_REGULATION and stiffer is not None:
+        # A small transformer's winding resistance eats the headroom: a larger core with
+        # better regulation helps without the extra heat of a higher secondary.
+        return ctx.floors.raise_to(
+            "va", stiffer, f"at the trough the engine found too little headroom with a "
+            f"{fq(va, 'VA')} transformer whose regulation is "
+            f"{fq(L['transformer.regulation'], '%')} (winding resistance)")
+    nxt = next((s for s in standards.SECONDARY_VOLTAGES if s > v * (1 + 1e-9)), v * 1.25)
+    return ctx.floors.raise_to(
+        "secondary", nxt, f"at the trough the engine found less than the required "
+        f"headroom with a {fq(v, 'V')} secondary (winding resistance and diode drops)")
