@@ -9,6 +9,7 @@ from .design import Design
 from .errors import InfeasibleDesign
 from .output import prepare_dir, safe_stem, write_atomic
 from .pipeline import run
+from .progress import stage
 from .spec import load_requirements
 
 
@@ -27,10 +28,12 @@ def design_for(spec_path: Path) -> Design:
 
 
 def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResult:
-    loaded = load_requirements(spec_path)
+    with stage("reading the requirements"):
+        loaded = load_requirements(spec_path)
     out_dir = out_root / safe_stem(spec_path)
     try:
-        design = run(loaded)
+        with stage("sizing, corners and Monte Carlo"):
+            design = run(loaded)
     except InfeasibleDesign as exc:
         prepare_dir(out_dir)
         import json
@@ -47,30 +50,33 @@ def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResu
     prepare_dir(out_dir)
     from .render.figures import draw_plots
 
-    plots = draw_plots(design)
+    with stage("plots and schematic"):
+        plots = draw_plots(design)
     files: list[Path] = []
-    results = results_json(design)
-    html = render_html(design, plots)
+    with stage("results.json and HTML"):
+        results = results_json(design)
+        html = render_html(design, plots)
     for name, svg in plots.items():
         prepare_dir(out_dir / "plots")
         target = out_dir / "plots" / f"{name}.svg"
         write_atomic(target, svg)
         files.append(target)
-    from .render.bom import bom_csv
+    from .render.bom import BOM_CSV, STRESS_CSV, bom_csv, stress_csv
 
-    for name, data in (("results.json", results), ("bom.csv", bom_csv(design)),
-                       ("report.html", html)):
+    for name, data in (("results.json", results), (BOM_CSV, bom_csv(design)),
+                       (STRESS_CSV, stress_csv(design)), ("report.html", html)):
         write_atomic(out_dir / name, data)
         files.append(out_dir / name)
     if pdf:
         from .render.pdf import render_pdf
 
-        pdf_bytes = render_pdf(
-            html,
-            {spec_path.name: design.spec_text.encode("utf-8"),
-             "results.json": results.encode("utf-8")},
-            title=design.requirements.project.title,
-        )
+        with stage("PDF (WeasyPrint layout and drawing)"):
+            pdf_bytes = render_pdf(
+                render_html(design, plots, medium="print"),
+                {spec_path.name: design.spec_text.encode("utf-8"),
+                 "results.json": results.encode("utf-8")},
+                title=design.requirements.project.title,
+            )
         write_atomic(out_dir / "report.pdf", pdf_bytes)
         files.append(out_dir / "report.pdf")
     return BuildResult(spec_path, out_dir, design.status, files, design)

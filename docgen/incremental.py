@@ -35,7 +35,8 @@ STAMP_NAME = ".docgen-stamp.json"
 STAMP_FORMAT = 1
 
 # Libraries whose version can change the bytes of a report; recorded in the stamp.
-_OUTPUT_LIBRARIES = ("jinja2", "matplotlib", "weasyprint", "pydantic", "numpy")
+_OUTPUT_LIBRARIES = ("jinja2", "matplotlib", "weasyprint", "pydantic", "numpy",
+                     "latex2mathml")
 
 
 def _sha256_file(path: Path) -> str | None:

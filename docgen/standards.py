@@ -43,15 +43,45 @@ TYPICAL_REGULATION = ((1.0, 0.60), (3.0, 0.60), (5.0, 0.30), (10.0, 0.30), (15.0
                       (300.0, 0.06), (500.0, 0.06))
 
 
+# What each list rates, its unit, and what a user can change when a need exceeds the list;
+# the infeasible message quotes it.
+STEP_INFO: dict[tuple[float, ...], tuple[str, str, str]] = {
+    SECONDARY_VOLTAGES: ("rated secondary voltage of a small mains transformer", "V",
+                         "lower the output voltage or the regulator headroom, or give "
+                         "[transformer] secondary and va for a transformer you have"),
+    TRANSFORMER_VA: ("transformer power rating", "VA",
+                     "lower the load current, or give [transformer] secondary and va"),
+    CAPACITOR_VOLTAGES: ("capacitor voltage rating", "V",
+                         "lower the secondary voltage, or give [reservoir] capacitance and "
+                         "voltage_rating, or raise [margins] capacitor_voltage_derating"),
+    ZENER_POWERS: ("zener power class", "W",
+                   "lower load_max or the input voltage, widen the output tolerance, give a "
+                   "follower's pass transistor more gain ([output.transistor] h_fe_min), use "
+                   "a three-terminal regulator, or raise [margins] zener_power_derating"),
+    RESISTOR_POWERS: ("resistor power class", "W",
+                      "lower the load current or the input voltage, or raise [margins] "
+                      "resistor_power_derating"),
+    DIODE_VRRM: ("diode reverse-voltage class", "V", "lower the secondary voltage"),
+    FUSE_RATINGS: ("fuse-link current rating", "A",
+                   "lower the load current or use a higher mains voltage"),
+}
+
+
 class NoStandardValue(ValueError):
-    """The need is above every standard value in the list."""
+    """The need is above every standard value in the list; the message says what to change."""
 
 
 def next_at_or_above(need: float, values: tuple[float, ...]) -> float:
     """Smallest standard value >= need (with a relative tolerance of 1e-9)."""
     i = bisect.bisect_left(values, need * (1 - 1e-9))
     if i >= len(values):
-        raise NoStandardValue(f"{need:g} is above the largest standard value {values[-1]:g}")
+        from .units import format_quantity
+
+        what, unit, advice = STEP_INFO.get(values, ("standard value", "", "change the "
+                                                    "requirements that set this need"))
+        raise NoStandardValue(
+            f"needs {format_quantity(need, unit)}, above the largest standard {what} "
+            f"({format_quantity(values[-1], unit)}); to fix it: {advice}")
     return values[i]
 
 

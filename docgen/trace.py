@@ -16,6 +16,8 @@ from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field
 from string import Template
 
+from .errors import InfeasibleDesign
+from .standards import NoStandardValue
 from .units import format_quantity
 
 
@@ -165,7 +167,11 @@ class Ledger:
         self.equations.setdefault(equation.id, equation)
         self.reads += [(self.stage, vid) for vid in inputs.values()]
         args = {p: self.values[vid].value for p, vid in inputs.items()}
-        result = float(fn(**args))
+        try:
+            result = float(fn(**args))
+        except NoStandardValue as exc:
+            # name the quantity, the limit and what to change, not just two bare numbers
+            raise InfeasibleDesign(f"{title} ({value_id}) {exc}") from None
         rhs = Template(equation.rhs)
         symbolic = rhs.substitute({p: self.values[vid].symbol for p, vid in inputs.items()})
         # A value with a unit raised to a power needs brackets: (930 mA)^2, not 930 mA^2.

@@ -7,11 +7,14 @@ from functools import lru_cache
 from importlib import resources
 from typing import Any
 
+from jinja2 import pass_context
+
 from ..design import Design
 from ..trace import TracedValue
 from . import filters
 from .bom import bom_rows
 from .mathsvg import formula_data_uri
+from .netlist import netlist
 
 
 @lru_cache(maxsize=1)
@@ -26,24 +29,44 @@ def environment():
         lstrip_blocks=True,
     )
     env.filters.update(math=_math_tag, qty=filters.qty, pct=filters.pct, status_word=filters.status_word,
-                       anchor=filters.anchor, unit_text=filters.unit_text)
+                       anchor=filters.anchor, unit_text=filters.unit_text,
+                       formula_text=filters.formula_text)
     return env
 
 
-def _math_tag(latex: str):
-    """An <img> of the typeset formula, with the LaTeX as alt text so the PDF stays searchable."""
+# The same report is rendered for two media. "screen" (report.html): formulas as MathML, which
+# is text (selectable, searchable, a few hundred bytes, drawn in the page's own colour so it
+# stays readable in dark mode). "print" (the PDF): WeasyPrint has no MathML, so formulas are
+# typeset SVG pictures (docgen.render.mathsvg) with the formula as readable alternative text.
+MEDIA = ("screen", "print")
+
+
+@lru_cache(maxsize=4096)
+def _mathml(latex: str) -> str | None:
+    try:
+        from latex2mathml.converter import convert
+    except ImportError:  # pragma: no cover - a dependency; the pictures still work
+        return None
+    try:
+        return convert(latex)
+    except Exception:  # a construct the converter does not know: fall back to the picture
+        return None
+
+
+@pass_context
+def _math_tag(ctx, latex: str):
     from markupsafe import Markup, escape
 
+    text = filters.formula_text(latex)
+    if ctx.get("medium") == "screen":
+        mathml = _mathml(latex)
+        if mathml is not None:
+            return Markup(mathml.replace("<math ", f'<math alttext="{escape(text)}" ', 1))
     uri, w, h = formula_data_uri(latex)
     return Markup(
         f'<img class="math" src="{uri}" style="width: {w:.1f}pt; height: {h:.1f}pt" '
-        f'alt="{escape(latex)}">'
+        f'alt="{escape(text)}">'
     )
-
-
-def _img(latex: str) -> dict[str, Any]:
-    uri, w, h = formula_data_uri(latex)
-    return {"src": uri, "width": f"{w:.1f}pt", "height": f"{h:.1f}pt", "alt": latex}
 
 
 def _svg_uri(svg: str) -> str:
@@ -157,6 +180,7 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
             for name, (section, caption) in FIGURES.items() if name in plots
         ],
         "bom_rows": bom_rows(design),
+        "netlist": netlist(design),
         "corners": design.corners,
         "mc": design.monte_carlo,
         "mc_rows": [
@@ -168,13 +192,29 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
     }
 
 
-def render_html(design: Design, plots: dict[str, str]) -> str:
-    from .mathsvg import prefetch
-
-    # Typeset every formula up front: cached ones come from memory or disk, the rest in
-    # parallel processes, instead of one by one while the template renders.
+def render_html(design: Design, plots: dict[str, str], medium: str = "screen") -> str:
+    """The report as one HTML file: ``screen`` for report.html, ``print`` for the PDF."""
+    if medium not in MEDIA:
+        raise ValueError(f"unknown medium {medium!r}; expected one of {MEDIA}")
     formulas = [v.symbol for v in design.values.values()]
     formulas += [f for v in design.values.values() for f in (v.latex, v.substituted) if f]
-    prefetch(formulas)
+    if medium == "print" or any(_mathml(f) is None for f in formulas):
+        from .mathsvg import prefetch
+
+        # Typeset the pictures up front: cached ones come from memory or disk, the rest in
+        # parallel processes, instead of one by one while the template renders.
+        prefetch(formulas)
+    if medium == "print":
+        plots = {name: pdf_svg(svg) for name, svg in plots.items()}
     css = environment().loader.get_source(environment(), "report.css")[0]
-    return environment().get_template("report.html.j2").render(css=css, **context(design, plots))
+    return environment().get_template("report.html.j2").render(
+        css=css, medium=medium, **context(design, plots))
+
+
+def pdf_svg(svg: str) -> str:
+    """A figure for the PDF: its text in the fonts the PDF embeds (docgen.render.pdf), so the
+    drawing does not depend on the fonts of the machine either."""
+    from .pdf import MONO, SANS
+
+    return (svg.replace('font-family="DejaVu Sans Mono"', f'font-family="{MONO}"')
+               .replace('font-family="DejaVu Sans"', f'font-family="{SANS}"'))

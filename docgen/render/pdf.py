@@ -9,7 +9,9 @@ into layout and into drawing the formula and plot images (see bench/build.py).
 
 from __future__ import annotations
 
+import contextlib
 import datetime as _dt
+import os
 from pathlib import Path
 
 from ..errors import RenderError
@@ -25,18 +27,30 @@ def font_dir() -> Path:
     return Path(matplotlib.get_data_path()) / "fonts" / "ttf"
 
 
+# Family names of our own: under the fonts' real names fontconfig may prefer a copy installed on
+# the machine (another version), and the PDF would depend on the machine again.
+SANS, MONO = "docgen DejaVu Sans", "docgen DejaVu Sans Mono"
+
+
 def _font_css() -> str:
     d = font_dir()
-    faces = [("DejaVu Sans", "normal", "normal", "DejaVuSans.ttf"),
-             ("DejaVu Sans", "bold", "normal", "DejaVuSans-Bold.ttf"),
-             ("DejaVu Sans", "normal", "italic", "DejaVuSans-Oblique.ttf"),
-             ("DejaVu Sans Mono", "normal", "normal", "DejaVuSansMono.ttf"),
-             ("DejaVu Sans Mono", "bold", "normal", "DejaVuSansMono-Bold.ttf")]
-    return "\n".join(
+    faces = [(SANS, "normal", "normal", "DejaVuSans.ttf"),
+             (SANS, "bold", "normal", "DejaVuSans-Bold.ttf"),
+             (SANS, "normal", "italic", "DejaVuSans-Oblique.ttf"),
+             (SANS, "bold", "italic", "DejaVuSans-BoldOblique.ttf"),
+             (MONO, "normal", "normal", "DejaVuSansMono.ttf"),
+             (MONO, "bold", "normal", "DejaVuSansMono-Bold.ttf")]
+    rules = [
         f'@font-face {{ font-family: "{fam}"; font-weight: {w}; font-style: {s}; '
         f'src: url("{(d / f).as_uri()}"); }}'
         for fam, w, s, f in faces
-    )
+    ]
+    # WeasyPrint applies these as user rules, which lose to the report's own (author) rules
+    # unless important.
+    rules.append(f'html {{ font-family: "{SANS}" !important; }}')
+    rules.append(f'.mono, .vid, .eqid, pre, code, kbd, samp {{ font-family: "{MONO}" '
+                 '!important; }')
+    return "\n".join(rules)
 
 
 def _fetcher():
@@ -61,6 +75,21 @@ def _fetcher():
     return LocalOnlyFetcher()
 
 
+@contextlib.contextmanager
+def _fixed_font_timestamps():
+    """Subset fonts carry a "modified" time; fontTools takes it from SOURCE_DATE_EPOCH when set
+    (the reproducible-builds convention), else from the clock, which would make every PDF differ.
+    A value the caller set is kept."""
+    if "SOURCE_DATE_EPOCH" in os.environ:
+        yield
+        return
+    os.environ["SOURCE_DATE_EPOCH"] = str(int(FIXED_DATE.timestamp()))
+    try:
+        yield
+    finally:
+        os.environ.pop("SOURCE_DATE_EPOCH", None)
+
+
 def render_pdf(html: str, attachments: dict[str, bytes], title: str) -> bytes:
     try:
         import weasyprint
@@ -73,7 +102,23 @@ def render_pdf(html: str, attachments: dict[str, bytes], title: str) -> bytes:
                               description=name, relationship="Source")
         for name, data in attachments.items()
     ]
-    css = weasyprint.CSS(string=_font_css(), url_fetcher=fetcher)
+    from weasyprint.text.fonts import FontConfiguration
+
+    # @font-face rules apply only through a font configuration given to both the stylesheet
+    # and the writer; without it WeasyPrint silently takes the machine's fonts of that name.
+    fonts = FontConfiguration()
+    css = weasyprint.CSS(string=_font_css(), url_fetcher=fetcher, font_config=fonts)
     doc = weasyprint.HTML(string=html, url_fetcher=fetcher, base_url=None)
-    return doc.write_pdf(stylesheets=[css], attachments=files, pdf_identifier=b"docgen",
-                         uncompressed_pdf=False)
+    import warnings
+
+    with warnings.catch_warnings(), _fixed_font_timestamps():
+        # WeasyPrint 70 opens its sRGB profile for the PDF/A output intent and leaves the file
+        # to the garbage collector; that ResourceWarning is WeasyPrint's, not ours.
+        warnings.simplefilter("ignore", ResourceWarning)
+        return doc.write_pdf(stylesheets=[css], attachments=files, pdf_identifier=b"docgen",
+                             uncompressed_pdf=False, font_config=fonts, **PDF_OPTIONS)
+
+
+# Tagged PDF (structure for screen readers and reflow) as PDF/A-3b, the archival variant that
+# keeps attachments (the requirements file and results.json travel inside the report).
+PDF_OPTIONS = {"pdf_variant": "pdf/a-3b", "pdf_tags": True}

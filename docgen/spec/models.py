@@ -16,6 +16,7 @@ from .quantities import (
     ApparentPower,
     Capacitance,
     Current,
+    Decibels,
     Duration,
     Fraction,
     Frequency,
@@ -27,6 +28,7 @@ from .quantities import (
     Resistance,
     Tempco,
     Temperature,
+    ThermalResistance,
     Voltage,
 )
 
@@ -202,7 +204,7 @@ class Reservoir(Section):
     tan_delta: PositiveFraction = q(0.12, "", "Dissipation factor at 100/120 Hz, for the ESR "
                                     "estimate ESR = tan_delta / (2 pi f_r C).",
                                     "common practice for small aluminium electrolytics")
-    thermal_resistance: PositiveFraction = q(
+    thermal_resistance: ThermalResistance = q(
         25.0, "K/W", "Capacitor core-to-ambient thermal resistance, for ripple self-heating.",
         "common practice for a small radial can",
     )
@@ -261,8 +263,8 @@ class LinearRegulator(Section):
                             "common practice: +/-4 % standard grade")
     quiescent_current: Current = q(0.006, "A", "Ground-pin current (fixed) drawn from the input.",
                                    "common practice: a few mA")
-    ripple_rejection: float = Field(
-        default=60.0, ge=0.0, le=120.0,
+    ripple_rejection: Decibels = Field(
+        default=60.0,
         description="Ripple rejection at the ripple frequency, dB (minimum figure).",
         json_schema_extra={"unit": "dB",
                            "default_source": "common practice: 62-68 dB minimum for fixed types"},
@@ -277,11 +279,11 @@ class LinearRegulator(Section):
                           "divider.", "common practice")
     t_j_max: Temperature = q(125.0, "degC", "Highest junction temperature allowed by the maker.",
                              "common practice")
-    theta_jc: PositiveFraction = q(5.0, "K/W", "Junction-to-case thermal resistance.",
+    theta_jc: ThermalResistance = q(5.0, "K/W", "Junction-to-case thermal resistance.",
                                    "common practice: TO-220 outline")
-    theta_ja: PositiveFraction = q(50.0, "K/W", "Junction-to-ambient thermal resistance without "
+    theta_ja: ThermalResistance = q(50.0, "K/W", "Junction-to-ambient thermal resistance without "
                                    "a heat sink.", "common practice: TO-220 outline")
-    theta_cs: PositiveFraction = q(0.5, "K/W", "Case-to-sink thermal resistance (greased).",
+    theta_cs: ThermalResistance = q(0.5, "K/W", "Case-to-sink thermal resistance (greased).",
                                    "common practice")
     part: str = Field(default="", max_length=80,
                       description="Library part id of a fixed regulator (needs [parts]).")
@@ -297,11 +299,11 @@ class PassTransistor(Section):
     v_be: Voltage = q(0.7, "V", "Base-emitter voltage at the load current.",
                       "A. S. Sedra, K. C. Smith (0.6-0.7 V, from memory)")
     t_j_max: Temperature = q(150.0, "degC", "Highest junction temperature.", "common practice")
-    theta_jc: PositiveFraction = q(3.0, "K/W", "Junction-to-case thermal resistance.",
+    theta_jc: ThermalResistance = q(3.0, "K/W", "Junction-to-case thermal resistance.",
                                    "common practice: TO-220 power transistor")
-    theta_ja: PositiveFraction = q(62.5, "K/W", "Junction-to-ambient without a heat sink.",
+    theta_ja: ThermalResistance = q(62.5, "K/W", "Junction-to-ambient without a heat sink.",
                                    "common practice: TO-220 outline")
-    theta_cs: PositiveFraction = q(0.5, "K/W", "Case-to-sink thermal resistance (greased).",
+    theta_cs: ThermalResistance = q(0.5, "K/W", "Case-to-sink thermal resistance (greased).",
                                    "common practice")
     part: str = Field(default="", max_length=80,
                       description="Library part id of a fixed transistor (needs [parts]).")
