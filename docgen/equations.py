@@ -252,8 +252,8 @@ ENGINE_SWITCH_ON = _eq(
 CAP_RIPPLE_CURRENT = _eq(
     "reservoir.ripple_current_table", "Capacitor ripple current estimate",
     r"$i \cdot \sqrt{$k^2 - 1}", {"i": r"I_{DC}", "k": r"k_{rms}"},
-    "REFERENCES-style derivation: I_C,rms = sqrt(I_rect,rms^2 - I_DC^2) with the table "
-    "ratio I_rect,rms = k_rms I_DC (common practice)",
+    "derived [DERIVED-RMS]: I_C,rms = sqrt(I_rect,rms^2 - I_DC^2) with the table "
+    "ratio I_rect,rms = k_rms I_DC (common practice [CP-SELECTION-TABLES])",
 )
 SURGE_ESTIMATE = _eq(
     "rectifier.surge_estimate", "Switch-on surge estimate (empty capacitor, closed at the crest)",

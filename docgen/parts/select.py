@@ -533,7 +533,7 @@ def select_bridge_or_diodes(
         Worst-case reverse voltage across one diode, V; V_RRM >= it / voltage_derating.
     dc_current : float
         Average DC output current I_DC, A. Each diode carries I_DC / 2 on average in bridge and
-        center-tap circuits and I_DC in half-wave (REFERENCES.md section 4, derived). A bridge
+        center-tap circuits and I_DC in half-wave ([DERIVED-CHARGE], derived). A bridge
         part's i_f_avg is its output rating, so it is compared with I_DC itself.
     surge_current : float
         Peak switch-on surge through one diode, A; compared with I_FSM as it stands.
@@ -617,7 +617,7 @@ def select_zener(
         least ``power / power_derating``.
     ambient_c, lead_c : float, optional
         Operating temperatures, degC, of the two reference points makers use. Each part is
-        derated from its own reference (REFERENCES.md section 6: makers rate the same type
+        derated from its own reference ([CP-ZENER]: makers rate the same type
         against lead or ambient): ambient-rated parts at ``ambient_c``, lead-rated parts at
         ``lead_c``. A missing one is replaced by the other, and the reason says so: lead at
         ambient is optimistic, ambient at lead pessimistic. With neither, the rated power is
