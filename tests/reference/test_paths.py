@@ -177,3 +177,23 @@ def test_half_wave_ripple_c_ripple(designs):
     assert L["reservoir.v_pk_low"] == pytest.approx(v_pk, rel=1e-12)
     assert L["regulator.i_in_high_est"] == pytest.approx(1.0, rel=1e-12)
     assert L["reservoir.c_required"] == pytest.approx(4700e-6, rel=1e-3)
+
+
+@pytest.mark.parametrize("topology, f_r, c_expected", [
+    ("half-wave", 60.0, 83.3e-6),  # W1: C = Vpk / (V_r f R) = 100 / (2 x 60 x 10 k) = 83.3 uF
+    ("bridge", 120.0, 41.7e-6),  # W1 full-wave variant: 41.7 uF
+])
+def test_w1_capacitance(designs, topology, f_r, c_expected):
+    # W1 [SEDRA-SMITH]: Vpk = 100 V, R_L = 10 kohm (I_L = 10 mA), V_r = 2 V, 60 Hz mains.
+    # The stage's current is (Vpk - V_Z,min) / R_target at high line: 10 mA through 10 ohm.
+    design, _ = designs[topology]
+    n_d = 2 if topology == "bridge" else 1
+    v_f = 1.0
+    v_sec = (100.0 + n_d * v_f) / math.sqrt(2)  # Vpk = sqrt(2) V_sec - n_d V_F = 100 V
+    L = stage_ledger(design, "reservoir", {
+        "transformer.v_low_fl": v_sec, "transformer.v_high_fl": v_sec,
+        "transformer.v_high_nl": v_sec, "rect.v_f": v_f, "zener.v_min": 100.0 - 0.010 * 10.0,
+        "regulator.r_target": 10.0, "reservoir.ripple_allowed": 2.0, "mains.ripple_freq": f_r})
+    call_stage(reservoir.size_reservoir, design.requirements, L)
+    assert L["reservoir.v_pk_low"] == pytest.approx(100.0, rel=1e-12)
+    assert L["reservoir.c_required"] == pytest.approx(c_expected, rel=5e-3)
