@@ -36,7 +36,8 @@ Conventions that matter for the numbers:
 * ``transformer.secondary_voltage`` is the rated RMS voltage at full rated load and rated
   primary voltage; for a center-tapped part it is the whole winding (2 x 12 V -> "24 V").
   ``regulation`` is (V_no_load - V_full_load) / V_full_load, the full-load convention most
-  makers use ([CP-REGULATION], docs/references.md) - a figure divided by V_no_load must be converted.
+  makers use ([CP-REGULATION], docs/references.md) - a figure divided by V_no_load must be
+  converted.
 * ``bridge.i_f_avg`` is the bridge's rated average *output* current, as bridge makers quote it;
   ``diode.i_f_avg`` is the rating of one diode. ``i_fsm`` is the single half-sine surge peak.
 * ``zener.power`` is the rated power up to ``power_reference_temperature`` of the

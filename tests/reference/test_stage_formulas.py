@@ -342,7 +342,8 @@ def test_bridge_reverse_voltage_and_average_current(demo):
     assert L["rect.piv"] == pytest.approx(16.97, abs=0.005)
     # [DERIVED-CHARGE]: average current per bridge diode I_DC / 2
     assert L["rect.i_avg"] == pytest.approx(0.5, rel=1e-12)
-    # [CP-SELECTION-TABLES]: V_RRM >= 1.5-2 x PIV (common practice, no source); default 50 % derating
+    # [CP-SELECTION-TABLES]: V_RRM >= 1.5-2 x PIV (common practice, no source); default 50 %
+    # derating
     assert L["rect.v_rrm"] >= 2 * L["rect.piv"]
     assert L["rect.i_f_rating"] >= 2 * L["rect.i_avg"]
     # [CP-SELECTION-TABLES] bridge factor 1.8 (table arithmetic, factor supplied as a parameter)
@@ -406,7 +407,8 @@ def test_e24_rounding_of_the_series_resistor(tmp_path, r_max, chosen):
 def test_trough_ripple_matches_the_published_check(tmp_path):
     # C-RIPPLE: I = 1 A, 50 Hz full-wave, C = 4700 uF -> Vr = 2.128 V (+/-0.1 %).
     # The zener stage's ripple uses the mean current through R, (Vpk - Vr/2 - Vz)/R. Choose
-    # R = 10 ohm and Vpk so that this current is 1 A: Vpk = Vz + I R + Vr/2 with the [SEDRA-SMITH] ripple.
+    # R = 10 ohm and Vpk so that this current is 1 A: Vpk = Vz + I R + Vr/2 with the
+    # [SEDRA-SMITH] ripple.
     i_dc, r, v_z, c = 1.0, 10.0, 5.6, 4700e-6
     v_r = i_dc / (100.0 * c)
     v_pk = v_z + i_dc * r + v_r / 2

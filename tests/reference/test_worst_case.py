@@ -86,8 +86,9 @@ def test_capacitor_life_follows_the_ten_degree_rule():
 
 
 def test_derating_defaults_are_the_documented_ones():
-    # Common practice, no single source ([CP-CAP-VOLTAGE], [CP-ZENER], [CP-SELECTION-TABLES]): capacitor voltage at most 80 %
-    # of rating, zener and resistor power at most 50 %, diode V_RRM at least 2 x PIV.
+    # Common practice, no single source ([CP-CAP-VOLTAGE], [CP-ZENER], [CP-SELECTION-TABLES]):
+    # capacitor voltage at most 80 % of rating, zener and resistor power at most 50 %, diode
+    # V_RRM at least 2 x PIV.
     from docgen.spec.models import Margins
 
     m = Margins()

@@ -1,9 +1,9 @@
 """Steady-state engine against textbook capacitor-input rectifier relations and physics.
 
 Textbook relations (A. S. Sedra, K. C. Smith, Microelectronic Circuits, peak-rectifier section;
-formulas from memory, re-derived in the tests; [SEDRA-SMITH] in docs/references.md) hold for an ideal
-diode, no source impedance and small ripple. "Near-ideal" here: emission coefficient 0.02 (about
-20 mV forward drop at amperes), no diode series resistance, 0.1 mOhm source resistance. The
+formulas from memory, re-derived in the tests; [SEDRA-SMITH] in docs/references.md) hold for an
+ideal diode, no source impedance and small ripple. "Near-ideal" here: emission coefficient 0.02
+(about 20 mV forward drop at amperes), no diode series resistance, 0.1 mOhm source resistance. The
 source resistance cannot be zero in practice, and the loop time constant r_s C (0.5 mrad of
 phase here, against a conduction angle near 0.19 rad) is the main departure from the ideal; the
 step count is raised so the time step resolves it.
@@ -87,7 +87,8 @@ def test_conduction_angle_and_peak_current(ideal_results, topology, f_r):
     assert 0.95 < got.i_d_peak[0] / ideal_peak < 1.01
     # The book's closed form, i_D,max = I_L (1 + 2 pi sqrt(Vpk / (2 Vr))) full-wave and
     # I_L (1 + 2 pi sqrt(2 Vpk / Vr)) half-wave (from memory; one course handout prints the
-    # half-wave form for full-wave, the correct pair is in [SEDRA-SMITH], docs/references.md), also substitutes
+    # half-wave form for full-wave; the correct pair is in [SEDRA-SMITH], docs/references.md),
+    # also substitutes
     # C = I_L / (f_r Vr), which overstates C by the recharge share above: it is an upper
     # bound here, by under 15 %.
     k = math.sqrt(vpk / (2 * vr)) if f_r == 2 * F else math.sqrt(2 * vpk / vr)
@@ -185,7 +186,7 @@ def test_large_capacitor_gives_peak_minus_diode_drops():
         )
         assert got.ripple_pp[0] / got.v_c_mean[0] < 1e-3
 
-        def mean_current(v):
+        def mean_current(v, m=m, paths=paths):
             i = [_loop_current(VPK * math.sin(x) - v, r_s, m) for x in ph]
             # one half-period pulse per path per mains period
             return paths * trapezoid(i, ph) / (2 * math.pi)

@@ -145,7 +145,8 @@ class TestSIValues:
         assert cap.diameter == pytest.approx(0.0125) and cap.height == pytest.approx(0.025)
 
     def test_zener_power_derating(self):
-        # W6 of docs/references.md ([CP-ZENER], derived, illustrative inputs): R_thJL = 80 K/W, T_J,max = 175 degC,
+        # W6 of docs/references.md ([CP-ZENER], derived, illustrative inputs): R_thJL = 80 K/W,
+        # T_J,max = 175 degC,
         # full power to T_L = 95 degC -> 1.00 W; at T_L = 135 degC -> 0.50 W.
         text = HEADER + """
 [[zener]]

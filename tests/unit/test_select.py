@@ -1,7 +1,8 @@
 """Part selection: the rule (fit every rating, then lowest price), reasons, margins and misses.
 
 The small libraries here are invented for the tests. Where an expected number comes from the
-project's list of sources, docs/references.md (a derived check or a published relation), its key is named.
+project's list of sources, docs/references.md (a derived check or a published relation), its key
+is named.
 """
 
 from __future__ import annotations

@@ -10,7 +10,8 @@ Default values are checked against their stated sources:
 * minimum zener current 5 x I_ZK: Sedra & Smith zener exercise (W2 [SEDRA-SMITH]; numbers confirmed
   on secondary pages, attribution from memory).
 * electrolytic tolerance 20 % (IEC 60063 E6 tolerance, [IEC60063]), derating factors and the
-  1.8 bridge RMS ratio: common practice, no source ([CP-SELECTION-TABLES], [CP-CAP-VOLTAGE], [CP-ZENER]).
+  1.8 bridge RMS ratio: common practice, no source ([CP-SELECTION-TABLES], [CP-CAP-VOLTAGE],
+  [CP-ZENER]).
 """
 
 from __future__ import annotations
