@@ -322,23 +322,26 @@ def test_split_fuse_operating_current_covers_both_rails(verified):
 
 
 @pytest.mark.slow
-@pytest.mark.parametrize("spec", [p.stem for p in SPECS])
-def test_capacitor_life_from_the_independent_ripple_current(verified, spec):
+def test_capacitor_life_from_the_independent_ripple_current(verified):
     # [CP-10-DEGREE]: core temperature T = T_A,max + I_C,rms^2 ESR R_th, life L0 2^((T0 - T)/10),
-    # capped; I_C,rms from the independent integration at the worst ripple-current corner.
-    res, rails, _ = verified[spec]
-    rail = rails[0]
-    life = next((c for c in rail.checks if c["id"] == "check.cap_life"), None)
-    if life is None:
-        pytest.skip("no capacitor life requirement in this spec")
-    v = rail.v
-    worst = next(c for c in rail.checks if c["id"] == "check.cap_ripple_current")
-    i_c = rail.figures(worst["corner"])["i_c_rms"]
-    assert v["engine.i_c_rms_max"] == pytest.approx(i_c, rel=TOL)
-    t_core = v["env.t_max"] + i_c**2 * v["reservoir.esr"] * v["reservoir.r_th"]
-    assert v["reservoir.t_core"] == pytest.approx(t_core, rel=TOL)
-    hours = min(v["reservoir.life_rated"] * 2 ** ((v["reservoir.life_temp"] - t_core) / 10),
-                v["reservoir.life_cap"])
-    assert v["reservoir.life"] == pytest.approx(hours, rel=TOL)
-    band = res["values"]["margins.warn_band"]["value"]
-    assert _verdict(hours, life, band) == life["status"]
+    # capped; I_C,rms from the independent integration at the worst ripple-current corner. Every
+    # demo design with a life requirement.
+    checked = 0
+    for res, rails, _ in verified.values():
+        rail = rails[0]
+        life = next((c for c in rail.checks if c["id"] == "check.cap_life"), None)
+        if life is None:
+            continue
+        v = rail.v
+        worst = next(c for c in rail.checks if c["id"] == "check.cap_ripple_current")
+        i_c = rail.figures(worst["corner"])["i_c_rms"]
+        assert v["engine.i_c_rms_max"] == pytest.approx(i_c, rel=TOL)
+        t_core = v["env.t_max"] + i_c**2 * v["reservoir.esr"] * v["reservoir.r_th"]
+        assert v["reservoir.t_core"] == pytest.approx(t_core, rel=TOL)
+        hours = min(v["reservoir.life_rated"] * 2 ** ((v["reservoir.life_temp"] - t_core) / 10),
+                    v["reservoir.life_cap"])
+        assert v["reservoir.life"] == pytest.approx(hours, rel=TOL)
+        band = res["values"]["margins.warn_band"]["value"]
+        assert _verdict(hours, life, band) == life["status"]
+        checked += 1
+    assert checked >= 1

@@ -55,7 +55,7 @@ def specs(draw):
 
 
 @pytest.mark.slow
-@settings(max_examples=8, derandomize=True, deadline=None, database=None,
+@settings(max_examples=6, derandomize=True, deadline=None, database=None,
           suppress_health_check=[HealthCheck.too_slow, HealthCheck.filter_too_much,
                                  HealthCheck.function_scoped_fixture])
 @given(text=specs(), data=st.data())

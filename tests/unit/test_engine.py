@@ -175,10 +175,10 @@ def test_large_capacitor_gives_peak_minus_diode_drops():
     # With C -> large the capacitor voltage V is constant and the path current follows the
     # EMF quasi-statically: i(t) = loop current with Vpk sin(wt) - V across it. Charge balance
     # ([DERIVED-CHARGE]) fixes V: the mean of i over a period, times the paths, equals I_L. V
-    # is found here with brentq and a 20 000-point average of the diode law, not from the
+    # is found here with brentq and a 3000-step trapezoidal average of the diode law, not from the
     # engine's figures.
     r_s, i_l = 0.2, 0.2
-    ph = np.linspace(0.0, math.pi, 20001)
+    ph = np.linspace(0.0, math.pi, 3001)
     for topology, m, paths in (("bridge", 2, 2), ("half-wave", 1, 1)):
         got = simulate(
             Circuit(topology, v_rms=12.0, freq=50.0, r_s=r_s, l_s=0.0, c=10.0, esr=0.0,
