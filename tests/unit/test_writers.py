@@ -74,3 +74,39 @@ def test_bom_rows_by_hand():
     ]
     parsed = list(csv.DictReader(io.StringIO(bom_csv(hand_design()))))
     assert parsed == rows
+
+
+def test_html_context_traces_each_check_back_to_its_inputs():
+    # By hand: c = a + b is checked against the given limit d; the traceability table must list
+    # a, b and d (the given inputs) with the equation that links them and the check; the
+    # attention list holds the failing check first, then the warning with the least margin.
+    from types import SimpleNamespace
+
+    from docgen.render.html import context, traceability
+    from docgen.trace import Equation
+
+    L = Ledger()
+    L.given("a", "a", 1.0, "V", "first input")
+    L.given("b", "b", 2.0, "V", "second input", defaulted=True)
+    L.given("d", "d", 2.9, "V", "limit")
+    L.calc("c", Equation("t.sum", "Sum", "$x + $y", {"x": "x", "y": "y"}, "derived"), "c", "V",
+           "sum", {"x": "a", "y": "b"}, lambda x, y: x + y)
+    checks = [
+        Check("check.ok", "ok", 1.0, 2.0, "V", "max", 0.5, "pass", "", "a", "d"),
+        Check("check.c", "c <= d", 3.0, 2.9, "V", "max", -0.1 / 2.9, "fail", "", "c", "d"),
+        Check("check.w2", "w2", 2.8, 2.9, "V", "max", 0.1 / 2.9, "warn", "", "a", "d"),
+        Check("check.w1", "w1", 2.85, 2.9, "V", "max", 0.05 / 2.9, "warn", "", "b", "d"),
+    ]
+    d = dataclasses.replace(hand_design(), values=dict(L.values), equations=dict(L.equations),
+                            checks=checks, requirements=SimpleNamespace(project="p"))
+    rows = {r["value"].id: r for r in traceability(d)}
+    assert set(rows) == {"a", "b", "d"}
+    assert rows["a"]["equations"] == ["t.sum"]
+    assert rows["a"]["checks"] == ["check.c", "check.ok", "check.w2"]
+    assert rows["b"]["checks"] == ["check.c", "check.w1"]
+    assert rows["d"]["equations"] == [] and len(rows["d"]["checks"]) == 4
+    ctx = context(d, {})
+    assert [c.id for c in ctx["attention"]] == ["check.c", "check.w1", "check.w2"]
+    assert [v.id for v in ctx["inputs"]] == ["a", "b", "d"]
+    assert ctx["counts"] == {"pass": 1, "warn": 2, "fail": 1}
+    assert ctx["sources"] == ["derived"]
