@@ -258,10 +258,10 @@ ENGINE_SWITCH_ON = _eq(
 CAP_RIPPLE_CURRENT = _eq(
     "reservoir.ripple_current_table", "Capacitor ripple current estimate",
     r"$i \cdot \sqrt{($w \cdot $k)^2 - 1}", {"i": r"I_{DC}", "w": r"k_w", "k": r"k_{rms}"},
-    "derived: the capacitor carries the rectifier's output current less its DC, "
+    "derived [DERIVED-RMS]: the capacitor carries the rectifier's output current less its DC, "
     "I_C,rms = sqrt(I_rect,rms^2 - I_DC^2), with I_rect,rms = k_w k_rms I_DC from the table "
-    "ratio of the winding current (common practice); k_w = sqrt(2) for a center tap, whose two "
-    "half windings feed the capacitor in turn",
+    "ratio of the winding current (common practice [CP-SELECTION-TABLES]); k_w = sqrt(2) for a "
+    "center tap, whose two half windings feed the capacitor in turn",
 )
 SURGE_ESTIMATE = _eq(
     "rectifier.surge_estimate", "Switch-on surge estimate (empty capacitor, closed at the crest)",

@@ -110,15 +110,19 @@ def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail) -> Des
     return _merge(loaded, spec, a, b)
 
 
+def _worst_corner(d: Design) -> str:
+    return next(c.corner for c in d.checks if c.id == "check.transformer_current")
+
+
 def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design) -> Design:
     L = Ledger()
     L.stage = "split"
     L.given("split.i_pos", r"I_{+}", a.values["engine.transformer_current"].value, "A",
             "Half-winding RMS current from the positive rail (engine)",
-            source="positive rail, worst nominal corner")
+            source=f"positive rail, worst corner: {_worst_corner(a)}")
     L.given("split.i_neg", r"I_{-}", b.values["engine.transformer_current"].value, "A",
             "Half-winding RMS current from the negative rail (engine)",
-            source="negative rail, worst nominal corner")
+            source=f"negative rail, worst corner: {_worst_corner(b)}")
     L.calc("split.i_sec_rms", eq.RSS, r"I_{half,rms}", "A",
            "Half-winding RMS current, both rails", {"a": "split.i_pos", "b": "split.i_neg"},
            lambda a, b: math.hypot(a, b))
@@ -127,7 +131,7 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design) -> Desi
             source="transformer rating (VA / whole winding voltage)")
     combined = make_check(L, "check.transformer_current", "Half-winding RMS current (both "
                           "rails) <= rated current", "split.i_sec_rms", "split.i_rated", "max",
-                          "nominal mains, full load on both rails", spec.margins.warn_band,
+                          "each rail at its worst corner", spec.margins.warn_band,
                           ref="T1")
     values = dict(a.values)
     values.update(L.values)

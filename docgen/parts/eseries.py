@@ -3,8 +3,8 @@
 Sources
 -------
 * E6, E12, E24: IEC 60063:2015 *Preferred number series for resistors and capacitors*, table
-  of the E series. Values copied from the project's REFERENCES.md section 10, which records
-  them as confirmed against a secondary copy of the standard's table.
+  of the E series. Values as listed in docs/references.md [IEC60063], confirmed against a
+  secondary copy of the standard's table.
 * E96: written from memory of the IEC 60063 table and compared, value by value, with two
   secondary web copies of the table (the primary text was not seen). Unlike E6-E24, every E96
   value equals ``10**(i/96)`` rounded to three significant figures; the tests use that as an
@@ -45,7 +45,7 @@ __all__ = [
     "value_code",
 ]
 
-# IEC 60063 (REFERENCES.md section 10, confirmed against a secondary copy of the table).
+# IEC 60063 ([IEC60063], confirmed against a secondary copy of the table).
 E6: tuple[float, ...] = (1.0, 1.5, 2.2, 3.3, 4.7, 6.8)
 
 E12: tuple[float, ...] = (1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2)
@@ -78,8 +78,8 @@ SERIES: dict[str, tuple[float, ...]] = {
     "E96": E96,
 }
 
-# Tolerance usually associated with each series. E6/E12/E24: IEC 60063 (REFERENCES.md
-# section 10, confirmed); E48/E96: from memory. IEC 60063:2015 loosened the wording of this
+# Tolerance usually associated with each series. E6/E12/E24: IEC 60063
+# ([IEC60063], confirmed); E48/E96: from memory. IEC 60063:2015 loosened the wording of this
 # relation, so it is a habit of the trade rather than a rule.
 TOLERANCE: dict[str, float] = {"E6": 0.20, "E12": 0.10, "E24": 0.05, "E48": 0.02, "E96": 0.01}
 

@@ -36,7 +36,8 @@ Conventions that matter for the numbers:
 * ``transformer.secondary_voltage`` is the rated RMS voltage at full rated load and rated
   primary voltage; for a center-tapped part it is the whole winding (2 x 12 V -> "24 V").
   ``regulation`` is (V_no_load - V_full_load) / V_full_load, the full-load convention most
-  makers use (REFERENCES.md section 2) - a figure divided by V_no_load must be converted.
+  makers use ([CP-REGULATION], docs/references.md) - a figure divided by V_no_load must be
+  converted.
 * ``bridge.i_f_avg`` is the bridge's rated average *output* current, as bridge makers quote it;
   ``diode.i_f_avg`` is the rating of one diode. ``i_fsm`` is the single half-sine surge peak.
 * ``zener.power`` is the rated power up to ``power_reference_temperature`` of the
@@ -434,7 +435,7 @@ class Capacitor(_PartBase):
     def esr_at(self, frequency: float) -> float:
         """ESR in ohm at ``frequency`` (Hz): the stated esr, else tan_delta / (2 pi f C).
 
-        The tan-delta relation is common practice, no source (REFERENCES.md section 5).
+        The tan-delta relation is common practice, no source ([CP-ESR]).
         """
         if self.esr is not None:
             return self.esr
@@ -460,7 +461,7 @@ class Zener(_PartBase):
         """Allowed power, W, with the reference point at ``temperature_c``.
 
         The rated power up to the reference temperature, then (t_j_max - T) / r_theta: linear
-        derating, the standard thermal relation (REFERENCES.md section 6), never below zero.
+        derating, the standard thermal relation ([CP-ZENER]), never below zero.
         """
         derated = (self.t_j_max_c - temperature_c) / self.r_theta
         return max(0.0, min(self.power, derated))

@@ -109,7 +109,7 @@ def select_bridge_or_diodes(
         Worst-case reverse voltage across one diode, V; V_RRM >= it / voltage_derating.
     dc_current : float
         Average DC output current I_DC, A. Each diode carries I_DC / 2 on average in bridge and
-        center-tap circuits and I_DC in half-wave (REFERENCES.md section 4, derived). A bridge
+        center-tap circuits and I_DC in half-wave ([DERIVED-CHARGE], derived). A bridge
         part's i_f_avg is its output rating, so it is compared with I_DC itself.
     surge_current : float
         Peak switch-on surge through one diode, A; compared with I_FSM as it stands.

@@ -56,7 +56,7 @@ def select_zener(
         least ``power / power_derating``.
     ambient_c, lead_c : float, optional
         Operating temperatures, degC, of the two reference points makers use. Each part is
-        derated from its own reference (REFERENCES.md section 6: makers rate the same type
+        derated from its own reference ([CP-ZENER]: makers rate the same type
         against lead or ambient): ambient-rated parts at ``ambient_c``, lead-rated parts at
         ``lead_c``. A missing one is replaced by the other, and the reason says so: lead at
         ambient is optimistic, ambient at lead pessimistic. With neither, the rated power is

@@ -2,7 +2,7 @@
 
 The drawing is a picture; this list says the same in words, for screen readers (the schematic
 image points at it) and for anyone checking the wiring. It follows the circuits docgen draws
-(docgen/schematic.py): designators by letter in natural order, adjustable divider R OUT-ADJ
+(docgen/render/schematic.py): designators by letter in natural order, adjustable divider R OUT-ADJ
 then ADJ-0 V, the negative rail of a split supply mirrored.
 """
 

@@ -77,24 +77,25 @@ def test_tightening_a_requirement_flips_its_check_and_relaxing_flips_it_back(tmp
 
 
 def test_capacitor_life_follows_the_ten_degree_rule():
-    # REFERENCES §5 check [derived] from the 10-degree rule stated in makers' application
+    # C-LIFE check [derived] from the 10-degree rule stated in makers' application
     # guides (common practice): 2000 h at 105 degC -> 32 000 h at 65 degC, 128 000 h at 45 degC.
     assert capacitor_life(2000 * HOUR, 105, 65, LIFE_CAP) == pytest.approx(32000 * HOUR)
     assert capacitor_life(2000 * HOUR, 105, 45, LIFE_CAP) == pytest.approx(128000 * HOUR)
-    # ... and the extrapolation stops at about 15 years (common practice, REFERENCES §5)
+    # ... and the extrapolation stops at about 15 years (common practice, [CP-10-DEGREE])
     assert capacitor_life(2000 * HOUR, 105, 35, LIFE_CAP) == LIFE_CAP
     assert LIFE_CAP / HOUR == pytest.approx(131490, rel=1e-3)
 
 
 def test_derating_defaults_are_the_documented_ones():
-    # Common practice, no single source (REFERENCES §5, §6, §4): capacitor voltage at most 80 %
-    # of rating, zener and resistor power at most 50 %, diode V_RRM at least 2 x PIV.
+    # Common practice, no single source ([CP-CAP-VOLTAGE], [CP-ZENER], [CP-SELECTION-TABLES]):
+    # capacitor voltage at most 80 % of rating, zener and resistor power at most 50 %, diode
+    # V_RRM at least 2 x PIV.
     from docgen.spec.models import Margins
 
     m = Margins()
     assert (m.capacitor_voltage_derating, m.zener_power_derating, m.resistor_power_derating,
             m.diode_voltage_derating) == (0.8, 0.5, 0.5, 0.5)
-    assert m.junction_max == 110.0  # common practice: 100-110 degC for margin (REFERENCES §7)
+    assert m.junction_max == 110.0  # common practice: 100-110 degC for margin ([CP-THERMAL])
 
 
 def test_every_check_names_its_corner(demo):

@@ -1,6 +1,6 @@
 """IEC 60063 preferred values: the tables and rounding to them.
 
-The expected lists below are typed from IEC 60063:2015 as recorded in REFERENCES.md section 10
+The expected lists below are typed from IEC 60063:2015 as listed in docs/references.md [IEC60063]
 (E6, E12, E24: confirmed against a secondary copy of the standard's table). The E96 list is from
 memory of the same standard, compared with two secondary copies of its table.
 """
@@ -16,7 +16,7 @@ from hypothesis import strategies as st
 from docgen.parts import eseries
 from docgen.parts.eseries import is_preferred, preferred, series_values, value_code, values_between
 
-# IEC 60063:2015, E series table (REFERENCES.md section 10).
+# IEC 60063:2015, E series table ([IEC60063]).
 IEC60063_E6 = [1.0, 1.5, 2.2, 3.3, 4.7, 6.8]
 IEC60063_E12 = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2]
 IEC60063_E24 = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0,
@@ -48,14 +48,14 @@ class TestTables:
             assert len(series_values(name)) == n
 
     def test_each_series_is_every_other_member_of_the_next(self):
-        # IEC 60063 (REFERENCES.md section 10): E6 = E12[::2], E12 = E24[::2].
+        # IEC 60063 ([IEC60063]): E6 = E12[::2], E12 = E24[::2].
         assert eseries.E12 == eseries.E24[::2]
         assert eseries.E6 == eseries.E12[::2]
         # E48 = E96[::2] (from memory; also stated by a secondary copy of the table).
         assert [round(v * 100) for v in eseries.E48] == IEC60063_E96_HUNDREDTHS[::2]
 
     def test_e24_is_not_the_rounded_geometric_series(self):
-        # REFERENCES.md section 10: IEC kept historical values, e.g. 2.7 where 10**(10/24)
+        # [IEC60063]: IEC kept historical values, e.g. 2.7 where 10**(10/24)
         # rounds to 2.6, so a generated table would be wrong.
         geometric = [round(10 ** (i / 24), 1) for i in range(24)]
         assert geometric[10] == 2.6 and eseries.E24[10] == 2.7
@@ -80,7 +80,7 @@ class TestTables:
 
 class TestPreferred:
     def test_references_derived_checks(self):
-        # REFERENCES.md section 10, derived checks: nearest-not-above E24 for 478 ohm is
+        # C-ESERIES [IEC60063], derived checks: nearest-not-above E24 for 478 ohm is
         # 470 ohm, nearest-not-below for 235 ohm is 240 ohm.
         assert preferred(478.0, "E24", "down") == 470.0
         assert preferred(235.0, "E24", "up") == 240.0

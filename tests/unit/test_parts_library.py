@@ -99,7 +99,7 @@ class TestSIValues:
         assert cap.ripple_temperature_c == 105.0 and cap.life_temperature_c == 105.0
         assert cap.life == 5000 * 3600.0  # hours are stored as seconds
         # ESR from the dissipation factor: tan d / (2 pi f C) (common practice, no source;
-        # REFERENCES.md section 5 check: 0.10, 120 Hz, 4700 uF -> 28.2 mohm).
+        # [CP-ESR] check C-ESR, docs/references.md: 0.10, 120 Hz, 4700 uF -> 28.2 mohm).
         check = cap.model_copy(update={"tan_delta": 0.10, "capacitance": 4700e-6})
         assert check.esr_at(120.0) == pytest.approx(0.0282, abs=0.00005)
 
@@ -112,7 +112,7 @@ class TestSIValues:
         lib = load_library(DEMO)
         trf = lib.get("DP-TRF-15VA-12V")
         assert (trf.secondary_voltage, trf.va, trf.regulation) == (12.0, 15.0, 0.16)
-        # Full-load regulation convention (REFERENCES.md section 2): V_NL = V_FL (1 + Reg).
+        # Full-load regulation convention ([CP-REGULATION]): V_NL = V_FL (1 + Reg).
         assert trf.no_load_voltage == pytest.approx(12.0 * 1.16)
         assert trf.rated_current == pytest.approx(1.25)
         toroid = lib.get("DP-TRF-30VA-24V")
@@ -145,7 +145,8 @@ class TestSIValues:
         assert cap.diameter == pytest.approx(0.0125) and cap.height == pytest.approx(0.025)
 
     def test_zener_power_derating(self):
-        # REFERENCES.md W6 (derived, illustrative inputs): R_thJL = 80 K/W, T_J,max = 175 degC,
+        # W6 of docs/references.md ([CP-ZENER], derived, illustrative inputs): R_thJL = 80 K/W,
+        # T_J,max = 175 degC,
         # full power to T_L = 95 degC -> 1.00 W; at T_L = 135 degC -> 0.50 W.
         text = HEADER + """
 [[zener]]

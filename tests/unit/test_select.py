@@ -1,7 +1,8 @@
 """Part selection: the rule (fit every rating, then lowest price), reasons, margins and misses.
 
 The small libraries here are invented for the tests. Where an expected number comes from the
-project's REFERENCES.md (a derived check or a published relation) the section is named.
+project's list of sources, docs/references.md (a derived check or a published relation), its key
+is named.
 """
 
 from __future__ import annotations
@@ -257,7 +258,7 @@ price = 0.09
 
 class TestRectifier:
     def test_bridge_output_rating_against_dc_current(self):
-        # REFERENCES.md section 4 check (derived): 12 V RMS bridge, PIV 16.97 V; at +10 % line
+        # C-PIV [DERIVED-PIV]: 12 V RMS bridge, PIV 16.97 V; at +10 % line
         # and 20 % regulation 22.40 V. Bridge parts are rated by output current.
         sel = select_bridge_or_diodes(RECTIFIERS.bridges, [], topology="bridge",
                                       peak_reverse_voltage=22.40, dc_current=1.0,
@@ -267,7 +268,7 @@ class TestRectifier:
         assert sel.requirement["i_f_avg"] == (1.0, "A")
 
     def test_discrete_diodes_win_when_cheaper(self):
-        # Per-diode average current in a bridge is I_DC / 2 (REFERENCES.md section 4, derived):
+        # Per-diode average current in a bridge is I_DC / 2 ([DERIVED-CHARGE]):
         # 1.6 A DC needs 0.8 A per diode, so the 1 A diode fits while the 1 A bridge does not.
         sel = select_bridge_or_diodes(RECTIFIERS.bridges, RECTIFIERS.diodes, topology="bridge",
                                       peak_reverse_voltage=30.0, dc_current=1.6,
@@ -278,7 +279,7 @@ class TestRectifier:
         assert "less than B-2A" in sel.reason
 
     def test_half_wave_diode_carries_the_whole_current(self):
-        # Half-wave: the one diode carries I_DC on average (REFERENCES.md section 4, derived).
+        # Half-wave: the one diode carries I_DC on average ([DERIVED-CHARGE]).
         sel = select_bridge_or_diodes([], RECTIFIERS.diodes, topology="half-wave",
                                       peak_reverse_voltage=34.0, dc_current=1.6,
                                       surge_current=25.0)
@@ -289,7 +290,7 @@ class TestRectifier:
         assert sel.part.id == "D-1A" and sel.quantity == 2
 
     def test_surge_and_i2t(self):
-        # A 30 A, 8.33 ms half-sine is 3.75 A2s (REFERENCES.md section 4, derived), above the
+        # A 30 A, 8.33 ms half-sine is 3.75 A2s (C-SURGE [DERIVED-SURGE]), above the
         # 1 A diode's 3.7 A2s; the 3 A diode states no I2t, so it cannot be shown to fit.
         # 33.9 A is the section 4 switch-on peak for 16.97 V through 0.5 ohm.
         i2t = 30.0**2 * 8.33e-3 / 2
@@ -364,7 +365,7 @@ price = 0.07
 
 class TestZener:
     def test_voltage_must_match_and_power_is_derated(self):
-        # REFERENCES.md W2: 5.6 V zener, worst-case 112 mW; with a 0.5 derating 224 mW. At
+        # W2 [SEDRA-SMITH]: 5.6 V zener, worst-case 112 mW; with a 0.5 derating 224 mW. At
         # 40 degC ambient the 0.5 W part allows (175 - 40) / 300 = 0.45 W.
         sel = select_zener(ZENERS, voltage=5.6, power=0.112, ambient_c=40.0,
                            power_derating=0.5)
@@ -373,7 +374,7 @@ class TestZener:
         assert "112 mW / 0.5 = 224 mW" in sel.reason
 
     def test_lead_rated_part_derated_from_its_own_reference(self):
-        # REFERENCES.md W6 (derived, illustrative inputs): 80 K/W, 175 degC, full power to
+        # W6 ([CP-ZENER], derived, illustrative inputs): 80 K/W, 175 degC, full power to
         # 95 degC lead -> 1.00 W; at 135 degC lead -> 0.50 W.
         # The 0.5 W part allows (175 - 40) / 300 = 0.45 W at 40 degC ambient: too little.
         sel = select_zener(ZENERS, voltage=5.6, power=0.46, ambient_c=40.0, lead_c=135.0)
@@ -439,7 +440,7 @@ price = 0.35
 
 class TestResistor:
     def test_references_rounding_checks(self):
-        # REFERENCES.md section 10 (derived): E24 down of 478 ohm -> 470 ohm; up of 235 -> 240.
+        # C-ESERIES [IEC60063] (derived): E24 down of 478 ohm -> 470 ohm; up of 235 -> 240.
         sel = select_resistor(RESISTORS, resistance=478.0, power=0.1, mode="down", series="E24")
         assert sel.part.resistance == 470.0 and sel.part.id == "R-E24-0W25-470R"
         assert sel.part.family == "R-E24-0W25"
@@ -452,7 +453,7 @@ class TestResistor:
         assert sel.part.id == "R-E96-0W25-475R" and sel.part.resistance == 475.0
 
     def test_power_picks_the_family(self):
-        # W2 of REFERENCES.md: 470 ohm from 15 V to 5.6 V dissipates (9.4 V)^2 / 470 = 0.188 W;
+        # W2 [SEDRA-SMITH]: 470 ohm from 15 V to 5.6 V dissipates (9.4 V)^2 / 470 = 0.188 W;
         # with a 0.5 derating that is 0.376 W, beyond the 0.25 W families.
         p = 9.4**2 / 470.0
         sel = select_resistor(RESISTORS, resistance=470.0, power=p, mode="down",
@@ -531,7 +532,7 @@ class TestRegulator:
         assert sel.part.id == "U-P5"
 
     def test_dropout_against_the_valley(self):
-        # REFERENCES.md section 7: a 5 V fixed regulator with 2 V dropout needs >= 7.0 V at
+        # C-DROPOUT [CP-THREE-TERMINAL]: a 5 V fixed regulator with 2 V dropout needs >= 7.0 V at
         # the ripple valley. 7.5 V passes with 0.5 V to spare; 6.9 V fails, and the
         # adjustable part (3 V) is worse still.
         sel = select_regulator(REGULATORS, output_voltage=5.0, current=0.5,
@@ -628,7 +629,7 @@ FUSES = parse_library(HEADER + "".join(
 
 class TestFuse:
     def test_references_fuse_check(self):
-        # REFERENCES.md section 8 check (derived): 20 VA on 230 V -> 87 mA primary; x 1.5 ->
+        # C-FUSE [CP-FUSE] with [IEC60127-2] values: 20 VA on 230 V -> 87 mA primary; x 1.5 ->
         # 130 mA -> 160 mA T, the next R10 rating. The dearer 160 mA part wins over the
         # cheaper 200 mA one: the smallest rating that fits protects best.
         current = 1.5 * 20.0 / 230.0
@@ -674,7 +675,7 @@ price = 1.20
 
 class TestHeatsink:
     def test_references_thermal_check(self):
-        # REFERENCES.md section 7 check (derived): 4.0 W, 40 degC ambient, T_J,max 125 degC,
+        # C-THERMAL [CP-THERMAL] (derived): 4.0 W, 40 degC ambient, T_J,max 125 degC,
         # theta_JC 5, theta_CS 0.5 -> required theta_SA = 15.75 K/W.
         required = (125.0 - 40.0) / 4.0 - 5.0 - 0.5
         assert required == pytest.approx(15.75)

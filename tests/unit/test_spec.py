@@ -6,11 +6,12 @@ without reading code; several problems in one file come back together.
 
 Default values are checked against their stated sources:
 * mains 230 V 50 Hz, +/-10 %: IEC 60038:2009 Table 1 and the +/-10 % supply range
-  (REFERENCES §1, confirmed on a secondary copy).
-* minimum zener current 5 x I_ZK: Sedra & Smith zener exercise (REFERENCES §W2; numbers confirmed
+  ([IEC60038], confirmed on a secondary copy).
+* minimum zener current 5 x I_ZK: Sedra & Smith zener exercise (W2 [SEDRA-SMITH]; numbers confirmed
   on secondary pages, attribution from memory).
-* electrolytic tolerance 20 % (IEC 60063 E6 tolerance, REFERENCES §10), derating factors and the
-  1.8 bridge RMS ratio: common practice, no source (REFERENCES §2, §5, §6).
+* electrolytic tolerance 20 % (IEC 60063 E6 tolerance, [IEC60063]), derating factors and the
+  1.8 bridge RMS ratio: common practice, no source ([CP-SELECTION-TABLES], [CP-CAP-VOLTAGE],
+  [CP-ZENER]).
 """
 
 from __future__ import annotations
@@ -67,19 +68,19 @@ def test_minimal_file_loads_with_documented_defaults(tmp_path):
     assert out.voltage == pytest.approx(9.1)
     assert out.load_max == pytest.approx(40e-3)
     assert out.ripple_max == pytest.approx(50e-3)
-    # IEC 60038:2009 Table 1: 230 V, 50 Hz; supply range +/-10 % (REFERENCES §1).
+    # IEC 60038:2009 Table 1: 230 V, 50 Hz; supply range +/-10 % ([IEC60038]).
     assert req.mains.nominal == 230.0
     assert req.mains.frequency == 50.0
     assert req.mains.tolerance_low == pytest.approx(0.10)
     assert req.mains.tolerance_high == pytest.approx(0.10)
-    # Sedra & Smith zener exercise keeps I_Z >= 5 x I_ZK with I_ZK = 1 mA (REFERENCES §W2).
+    # Sedra & Smith zener exercise keeps I_Z >= 5 x I_ZK with I_ZK = 1 mA (W2 [SEDRA-SMITH]).
     assert out.zener.min_current_factor == 5.0
     assert out.zener.knee_current == pytest.approx(1e-3)
-    # IEC 60063: E6 parts are +/-20 % (REFERENCES §10), the usual electrolytic tolerance.
+    # IEC 60063: E6 parts are +/-20 % ([IEC60063]), the usual electrolytic tolerance.
     assert req.reservoir.tolerance == pytest.approx(0.20)
-    # Common practice, no source: derate capacitor voltage to 80 % (REFERENCES §5) and zener
-    # power to 50 % (REFERENCES §6); the secondary RMS factor is left to the topology default
-    # (bridge 1.8, REFERENCES §2), applied by the pipeline.
+    # Common practice, no source: derate capacitor voltage to 80 % ([CP-CAP-VOLTAGE]) and zener
+    # power to 50 % ([CP-ZENER]); the secondary RMS factor is left to the topology default
+    # (bridge 1.8, [CP-SELECTION-TABLES]), applied by the pipeline.
     assert req.margins.capacitor_voltage_derating == pytest.approx(0.80)
     assert req.margins.zener_power_derating == pytest.approx(0.50)
     assert req.margins.secondary_rms_factor is None

@@ -198,10 +198,11 @@ def test_unit_error_is_a_value_error():
     "value, unit, text",
     [
         (207.0, "V", "207 V"),
-        (math.sqrt(2) * 230.0, "V", "325.3 V"),  # REFERENCES §1: 325.27 V, 4 significant digits
+        # C-MAINS [SEDRA-SMITH]: 325.27 V, 4 significant digits
+        (math.sqrt(2) * 230.0, "V", "325.3 V"),
         (0.045, "A", "45 mA"),
         (-0.005, "A", "-5 mA"),
-        (0.112, "W", "112 mW"),  # REFERENCES §W2: P_Z,max = 112 mW
+        (0.112, "W", "112 mW"),  # W2 [SEDRA-SMITH]: P_Z,max = 112 mW
         (470.0, "ohm", "470 \u03a9"),
         (2200.0, "ohm", "2.2 k\u03a9"),
         (1e6, "ohm", "1 M\u03a9"),
@@ -242,7 +243,8 @@ def test_format_units_without_prefix(value, unit, text):
 
 
 def test_format_radians_adds_degrees():
-    # REFERENCES §3 check: arccos(0.98) = 0.2003 rad; 0.2003 rad * 180/pi = 11.5 degrees.
+    # C-RIPPLE ([SEDRA-SMITH], derived): arccos(0.98) = 0.2003 rad; 0.2003 rad * 180/pi = 11.5
+    # degrees.
     theta = math.acos(1 - 2.0 / 100.0)
     assert format_quantity(theta, "rad") == f"0.2003 rad ({round(theta * 180 / math.pi, 1)}\u00b0)"
 
