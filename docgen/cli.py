@@ -11,7 +11,7 @@ import sys
 from pathlib import Path
 
 from . import __version__
-from .errors import DocgenError
+from .errors import DocgenError, printable
 
 EPILOG = """\
 examples:
@@ -137,14 +137,15 @@ def _cmd_check(args) -> int:
     worst = 0
     for path in _spec_files(args.specs):
         loaded = load_requirements(path)
+        shown = printable(str(path))
         try:
             design = run(loaded)
         except InfeasibleDesign as exc:
-            print(f"{path}: INFEASIBLE: {exc}")
+            print(f"{shown}: INFEASIBLE: {printable(str(exc))}")
             worst = max(worst, 1)
             continue
         counts = design.counts()
-        print(f"{path}: {design.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
+        print(f"{shown}: {design.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
               f"{counts['fail']} fail)")
         for ch in design.checks:
             if ch.status != "pass" or args.verbose:
@@ -167,12 +168,15 @@ def _build_single(path: Path, args) -> int:
 
     outcome = build_incremental(path, args.out, pdf=not args.no_pdf, force=args.force)
     note = " (up to date; --force rebuilds)" if outcome.action == "up to date" else ""
+    shown = printable(str(path))
     if outcome.status == "infeasible":
-        print(f"{path}: INFEASIBLE: {outcome.reason}{note}")
+        print(f"{shown}: INFEASIBLE: {printable(outcome.reason)}{note}")
     else:
         counts = outcome.counts
-        print(f"{path}: {outcome.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
-              f"{counts['fail']} fail) -> {outcome.out_dir}/{note}")
+        print(f"{shown}: {outcome.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
+              f"{counts['fail']} fail) -> {printable(outcome.out_dir)}/{note}")
+    if outcome.removed:
+        print(f"  removed stale outputs of the previous build: {', '.join(outcome.removed)}")
     return _exit_for(outcome.status, args.strict)
 
 
@@ -256,7 +260,7 @@ def main(argv: list[str] | None = None) -> int:
     try:
         return handlers[args.command](args)
     except DocgenError as exc:
-        print(f"docgen: error: {exc}", file=sys.stderr)
+        print(f"docgen: error: {printable(str(exc))}", file=sys.stderr)
         return exc.exit_code
     except KeyboardInterrupt:
         print("docgen: interrupted", file=sys.stderr)

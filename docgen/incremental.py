@@ -12,7 +12,8 @@ records a SHA-256 of every input that can change the outputs:
 * the options that change the outputs (PDF on or off).
 
 A spec is up to date when the stamp's key equals the key of the current inputs and every output
-file listed in the stamp still exists with its recorded size. A rebuild first marks the old
+file listed in the stamp still exists with its recorded SHA-256 (content, not size: two
+different reports can have the same length). A rebuild first marks the old
 stamp as "building", so a build that stops half way never leaves a stamp that vouches for mixed
 outputs.
 
@@ -213,12 +214,11 @@ def stale_reasons(stamp: dict[str, Any] | None, inputs: Inputs, out_dir: Path) -
         return reasons
     for name, info in sorted(outputs.items()):
         target = out_dir / name
-        try:
-            size = target.stat().st_size
-        except OSError:
+        if not target.is_file():
             reasons.append(f"output missing: {name}")
             continue
-        if isinstance(info, dict) and info.get("size") != size:
+        # By content, not size: two builds' reports can have the same length.
+        if not isinstance(info, dict) or info.get("sha256") != _sha256_file(target):
             reasons.append(f"output changed: {name}")
     return reasons
 
@@ -275,6 +275,7 @@ class Outcome:
     why: list[str] = field(default_factory=list)  # why it was rebuilt
     seconds: float = 0.0
     exit_code: int = 0  # for errors: the error's exit code
+    removed: list[str] = field(default_factory=list)  # stale outputs of an earlier build removed
 
 
 def _result_summary(build_result) -> dict[str, Any]:
@@ -326,18 +327,21 @@ def build_incremental(spec: Path, out_root: Path, *, pdf: bool = True, force: bo
 
     out_dir = out_dir_for(spec, out_root)
     inputs = current_inputs(spec, pdf=pdf)
-    if out_dir.is_dir():
+    from .output import output_lock
+    from .spec import load_requirements
+
+    load_requirements(spec)  # bad input is reported before the output folder is touched
+    with output_lock(out_dir):
         invalidate_stamp(out_dir)
-    result = build_one(spec, out_root, pdf=pdf)
-    summary = _result_summary(result)
-    # Stamp only when the inputs did not change while the build ran.
-    after = current_inputs(spec, pdf=pdf)
-    if after.key == inputs.key:
-        write_stamp(result.out_dir, inputs, result.files, summary)
+        result = build_one(spec, out_root, pdf=pdf)
+        summary = _result_summary(result)
+        # Stamp only when the inputs did not change while the build ran.
+        after = current_inputs(spec, pdf=pdf)
+        if after.key == inputs.key:
+            write_stamp(result.out_dir, inputs, result.files, summary)
     return Outcome(
         spec=str(spec), out_dir=str(result.out_dir), action="built", status=summary["status"],
         counts=summary["counts"], failing=summary["failing"], warnings=summary["warnings"],
         reason=summary["reason"], why=["forced"] if force else list(why or []),
-        seconds=time.perf_counter() - start,
+        seconds=time.perf_counter() - start, removed=list(result.removed),
     )
-

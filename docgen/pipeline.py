@@ -12,7 +12,6 @@ import math
 from collections.abc import Callable
 from dataclasses import dataclass
 from functools import partial
-from pathlib import Path
 from typing import Any
 
 import numpy as np
@@ -23,7 +22,9 @@ from .cautions import STANDING, triggered_cautions
 from .checks import make_check, overall_status
 from .corners import CornerResult, analyse, model_inputs
 from .design import Check, Design, PartChoice, Stage
-from .errors import InfeasibleDesign, SpecError, SpecIssue
+from .errors import InfeasibleDesign, SpecError
+from .parts.location import library_for
+from .undefined import undefined_text
 from .spec import LoadedSpec
 from .spec.models import Requirements
 from .stages import (
@@ -257,35 +258,6 @@ def _derived_metrics(cr: CornerResult, L: Ledger, spec: Requirements) -> None:
         m["v_out_max"] = m["v_c_max"]
         m["v_out_min"] = m["v_c_min"]
         m["p_out"] = m["v_c_mean"] * pts_load
-
-
-def _library(loaded: LoadedSpec):
-    ref = loaded.requirements.parts.library
-    if not ref:
-        return None
-    from .parts.library import load_library
-
-    if "://" in ref or ref.startswith("~"):
-        raise SpecError(str(loaded.path), [SpecIssue(
-            "parts.library", "must be a path relative to the requirements file, not a URL")])
-    base = loaded.path.resolve().parent
-    path = (base / ref).resolve()
-    root = _project_root(base)
-    if not path.is_relative_to(root):
-        raise SpecError(str(loaded.path), [SpecIssue(
-            "parts.library", f"{ref!r} points outside the project folder {root}; docgen reads "
-            "only files under the project")])
-    if not path.is_file():
-        raise SpecError(str(loaded.path), [SpecIssue("parts.library", f"{ref!r}: file not found")])
-    return load_library(path)
-
-
-def _project_root(folder: Path) -> Path:
-    """The enclosing git work tree, or the spec's parent folder when there is none."""
-    for candidate in (folder, *folder.parents):
-        if (candidate / ".git").exists():
-            return candidate
-    return folder.parent
 
 
 def _record_margins(spec: Requirements, L: Ledger) -> None:
@@ -714,8 +686,7 @@ def _guarded(fn: Callable[[], Any]) -> Any:
             raise
         # Requirements that pass validation can still be physically contradictory in a way
         # that surfaces as a non-finite or undefined value; never report such numbers.
-        raise InfeasibleDesign(
-            f"the requirements lead to an undefined value while sizing ({exc})") from None
+        raise InfeasibleDesign(undefined_text(exc)) from None
 
 
 def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
@@ -724,7 +695,7 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     ``samples`` overrides the Monte Carlo sample count of the file (0 turns it off).
     Raises InfeasibleDesign when no design of the chosen kind meets the requirements.
     """
-    library = _library(loaded)
+    library = library_for(loaded)  # confined to the project: docgen.parts.location
     if loaded.requirements.rectifier.topology == "split":
         from .split import run_split
 
@@ -751,7 +722,7 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
                           env.ambient_min, env.ambient_max, kind=kind))
     _derived_metrics(cr, L, spec)
     checks = _engine_values(ctx, L, cr)
-    checks += _protection(ctx, L, cr)
+    checks += _guarded(partial(_protection, ctx, L, cr))
     checks.sort(key=lambda c: ALL_CHECK_IDS.index(c.id) if c.id in ALL_CHECK_IDS else 100)
     cautions = list(STANDING) + triggered_cautions(
         L["reservoir.v_max"], L["transformer.v_high_nl"], L["reservoir.energy"], checks,
