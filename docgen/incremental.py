@@ -24,6 +24,8 @@ from __future__ import annotations
 
 import hashlib
 import json
+import os
+import stat
 import sys
 import time
 from collections.abc import Callable
@@ -43,10 +45,14 @@ def _sha256_file(path: Path) -> str | None:
     """SHA-256 of a file's bytes, or None when it does not exist or cannot be read."""
     h = hashlib.sha256()
     try:
+        if not path.is_file():  # a device or FIFO named as an input never ends or blocks
+            return None
         with open(path, "rb") as fh:
+            if not stat.S_ISREG(os.fstat(fh.fileno()).st_mode):
+                return None
             for block in iter(lambda: fh.read(1 << 20), b""):
                 h.update(block)
-    except OSError:
+    except (OSError, ValueError):
         return None
     return h.hexdigest()
 
@@ -96,7 +102,10 @@ def tool_inputs() -> dict[str, Any]:
 def _parts_library(raw: dict[str, Any], spec_dir: Path) -> list[tuple[str, Path]]:
     parts = raw.get("parts")
     if isinstance(parts, dict) and isinstance(parts.get("library"), str) and parts["library"]:
-        return [("parts library", spec_dir / parts["library"])]
+        ref = parts["library"]
+        if any(ord(c) < 32 for c in ref) or "://" in ref:
+            return []  # refused by the build, which names the field
+        return [("parts library", spec_dir / ref)]
     return []
 
 
@@ -151,9 +160,12 @@ class Inputs:
 
 
 def current_inputs(spec: Path, *, pdf: bool) -> Inputs:
-    try:
-        data = spec.read_bytes()
-    except OSError:
+    from .errors import SpecError
+    from .textfile import SPEC_MAX_BYTES, read_bounded
+
+    try:  # bounded, and regular files only: the build itself reports what is wrong
+        data: bytes | None = read_bounded(spec, SPEC_MAX_BYTES)
+    except SpecError:
         data = None
     files = []
     if data is not None:

@@ -24,7 +24,6 @@ from .corners import CornerResult, analyse, model_inputs
 from .design import Check, Design, PartChoice, Stage
 from .errors import InfeasibleDesign, SpecError
 from .parts.location import library_for
-from .undefined import undefined_text
 from .spec import LoadedSpec
 from .spec.models import Requirements
 from .stages import (
@@ -41,6 +40,7 @@ from .stages import (
 from .stages.context import SizingContext
 from .stages.series import thermal_chain
 from .trace import Assumption, Ledger, TraceError
+from .undefined import undefined_text
 from .units import format_quantity as fq
 
 MAX_PASSES = 8

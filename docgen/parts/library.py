@@ -69,10 +69,9 @@ from typing import Annotated, Any, ClassVar
 from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError, model_validator
 
 from ..errors import SpecError, SpecIssue
+from ..textfile import decode, parse_toml, read_bounded
 from ..units import as_float, expected_text, format_quantity, parse_quantity, show_raw
 from . import eseries
-
-from ..spec.textfile import decode, parse_toml, read_bounded
 
 __all__ = [
     "SCHEMA",
@@ -136,9 +135,11 @@ class _Quantity(_Reader):
         if self.sign == "non-negative" and value < 0:
             raise ValueError(f"expected zero or a positive {what}, got {show_raw(raw)}{self.hint}")
         if self.low is not None and value < self.low:
-            raise ValueError(f"expected at least {self._show(self.low)}, got {show_raw(raw)}{self.hint}")
+            raise ValueError(f"expected at least {self._show(self.low)}, "
+                             f"got {show_raw(raw)}{self.hint}")
         if self.high is not None and value > self.high:
-            raise ValueError(f"expected at most {self._show(self.high)}, got {show_raw(raw)}{self.hint}")
+            raise ValueError(f"expected at most {self._show(self.high)}, "
+                             f"got {show_raw(raw)}{self.hint}")
         return value
 
 
@@ -227,7 +228,8 @@ class _Price(_Reader):
 
     def __call__(self, raw: Any) -> float:
         if isinstance(raw, bool) or not isinstance(raw, (int, float)):
-            raise ValueError(f"expected a price as a plain number such as 0.45, got {show_raw(raw)}")
+            raise ValueError("expected a price as a plain number such as 0.45, "
+                             f"got {show_raw(raw)}")
         value = as_float(raw)
         if not (math.isfinite(value) and value >= 0):
             raise ValueError(f"expected a price of zero or more, got {show_raw(raw)}")
@@ -860,7 +862,8 @@ def load_library(path: str | Path) -> PartsLibrary:
     try:
         data = read_bounded(Path(path), MAX_BYTES, "a parts library .toml file")
     except SpecError as exc:
-        raise SpecError(exc.path, [SpecIssue(i.location, f"cannot read the parts library: "
-                                                         f"{i.message}") for i in exc.issues]) from None
+        issues = [SpecIssue(i.location, f"cannot read the parts library: {i.message}")
+                  for i in exc.issues]
+        raise SpecError(exc.path, issues) from None
     return parse_library(data, path)
 

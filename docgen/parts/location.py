@@ -30,12 +30,10 @@ def _refuse(spec: Path | str, message: str) -> SpecError:
     return SpecError(str(spec), [SpecIssue(FIELD, message)])
 
 
-def library_path(spec: Path, ref: str, root: Path | None = None) -> Path:
-    """The resolved path of ``ref`` (relative to the spec's folder), confined to the project.
-
-    ``root`` overrides the project folder (used when a spec is rebuilt from a git revision in a
-    temporary copy of its folder). Raises SpecError naming the field and what is expected.
-    """
+def confine(spec: Path, ref: str, root: Path | None = None) -> Path:
+    """The resolved path of ``ref`` (relative to the spec's folder), confined to the project;
+    the file need not exist. ``root`` overrides the project folder (a spec rebuilt from a git
+    revision in a temporary copy of its folder). Raises SpecError naming the field."""
     if any(ord(c) < 32 or ord(c) == 127 for c in ref):
         raise _refuse(spec, "holds a control character (such as a NUL byte); expected a plain "
                             "relative path such as \"parts/library.toml\"")
@@ -52,6 +50,12 @@ def library_path(spec: Path, ref: str, root: Path | None = None) -> Path:
         raise _refuse(spec, f"{ref!r} points outside the project folder {root}; docgen reads "
                             "only files under the project (the git work tree, or the "
                             "requirements file's folder outside git)")
+    return path
+
+
+def library_path(spec: Path, ref: str, root: Path | None = None) -> Path:
+    """:func:`confine`, and the file must exist."""
+    path = confine(spec, ref, root)
     if not path.is_file():
         raise _refuse(spec, f"{ref!r}: file not found (expected a regular file)")
     return path

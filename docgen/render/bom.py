@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import csv
 import io
+import re
 
 from ..design import Design
 from ..units import format_quantity
@@ -27,6 +28,22 @@ def bom_rows(design: Design) -> list[dict[str, str]]:
     return rows
 
 
+# A cell a spreadsheet would run as a formula starts with one of these (OWASP, "CSV Injection";
+# tab and carriage return also lead some programs into a formula).
+_FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
+# A plain signed number with an optional unit ("-12.5 %", "-3 mV") is data, not a formula.
+_SIGNED_NUMBER = re.compile(
+    r"[-+][0-9]+(?:\.[0-9]+)?(?:e-?[0-9]+)?(?: ?[%\w\u00b0\u00b5\u03a9/]+)?")
+
+
+def neutralise(cell: str) -> str:
+    """A CSV cell that no spreadsheet runs as a formula: one starting with = + - @ (or a tab or
+    carriage return) gets a leading apostrophe, unless it is a plain signed number."""
+    if cell.startswith(_FORMULA_START) and not _SIGNED_NUMBER.fullmatch(cell):
+        return "'" + cell
+    return cell
+
+
 def bom_csv(design: Design) -> str:
     buf = io.StringIO()
     fields = ["ref", "part", "description", "origin", "rating", "stress", "allowed", "margin",
@@ -34,5 +51,5 @@ def bom_csv(design: Design) -> str:
     writer = csv.DictWriter(buf, fieldnames=fields, lineterminator="\n")
     writer.writeheader()
     for row in bom_rows(design):
-        writer.writerow(row)
+        writer.writerow({k: neutralise(str(v)) for k, v in row.items()})
     return buf.getvalue()

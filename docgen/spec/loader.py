@@ -11,12 +11,12 @@ from typing import Any
 from pydantic import BaseModel, ValidationError
 
 from ..errors import SpecError, SpecIssue
+from ..textfile import SPEC_MAX_BYTES, decode, read_bounded
+from ..textfile import parse_toml as _parse_toml
 from ..units import show_raw
 from .models import Requirements
-from .textfile import decode, read_bounded
-from .textfile import parse_toml as _parse_toml
 
-MAX_BYTES = 1_000_000  # a requirements file is a page of text; anything larger is a mistake
+MAX_BYTES = SPEC_MAX_BYTES
 
 
 @dataclass(frozen=True)
@@ -25,6 +25,7 @@ class LoadedSpec:
     text: str
     sha256: str
     requirements: Requirements
+    project_root: Path | None = None  # set for a temporary copy; see docgen.parts.location
 
 
 def location(loc: tuple[Any, ...]) -> str:

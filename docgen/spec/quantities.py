@@ -26,11 +26,11 @@ def _reader(dimension: str, unit: str, *, positive: bool = False, non_negative: 
         if non_negative and value < 0:
             raise ValueError(f"must not be negative, got {show_raw(raw)}")
         if high is not None and value > high:
-            raise ValueError(f"{show_raw(raw)} is above {format_quantity(high, unit)}, the largest value "
-                             "docgen accepts here")
+            raise ValueError(f"{show_raw(raw)} is above {format_quantity(high, unit)}, the "
+                             "largest value docgen accepts here")
         if low is not None and value < low:
-            raise ValueError(f"{show_raw(raw)} is below {format_quantity(low, unit)}, the smallest value "
-                             "docgen accepts here")
+            raise ValueError(f"{show_raw(raw)} is below {format_quantity(low, unit)}, the "
+                             "smallest value docgen accepts here")
         return value
 
     return BeforeValidator(read)

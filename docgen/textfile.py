@@ -15,13 +15,14 @@ import stat
 from pathlib import Path
 from typing import Any
 
-from ..errors import SpecError, SpecIssue
+from .errors import SpecError, SpecIssue
 
 try:  # Python 3.11+
     import tomllib
 except ModuleNotFoundError:  # pragma: no cover - Python 3.10
     import tomli as tomllib  # type: ignore[no-redef]
 
+SPEC_MAX_BYTES = 1_000_000  # a requirements file is a page of text; far larger is a mistake
 MAX_DEPTH = 32  # arrays and tables nested deeper than this are a mistake in a page of settings
 MAX_KEY_PARTS = 64  # a dotted key of more parts than this is a mistake
 
