@@ -95,7 +95,7 @@ def test_zero_winding_resistance_is_refused_by_the_schema(tmp_path, capsys):
     _bad(tmp_path, text, capsys, "transformer.winding_resistance", "greater than zero")
 
 
-# --------------------------------------------------------------------------- infeasible, not a crash
+# ----------------------------------------------------------------------- infeasible, not a crash
 
 @pytest.mark.parametrize("extra", ['discharge_time = "0.1 s"', 'safe_voltage = "1e-9 V"'])
 def test_bleeder_with_odd_values_is_infeasible_with_its_numbers(tmp_path, capsys, extra):
