@@ -220,6 +220,8 @@ def stale_reasons(stamp: dict[str, Any] | None, inputs: Inputs, out_dir: Path) -
                 reasons.append(label)
         if not reasons:
             reasons.append("stamp does not match")
+    if _has_leftovers(out_dir):
+        reasons.append("a killed build left temporary files")
     outputs = stamp.get("outputs")
     if not isinstance(outputs, dict) or not outputs:
         reasons.append("stamp lists no outputs")
@@ -233,6 +235,18 @@ def stale_reasons(stamp: dict[str, Any] | None, inputs: Inputs, out_dir: Path) -
         if not isinstance(info, dict) or info.get("sha256") != _sha256_file(target):
             reasons.append(f"output changed: {name}")
     return reasons
+
+
+def _has_leftovers(out_dir: Path) -> bool:
+    from .output import is_leftover
+
+    for folder in (out_dir, out_dir / "plots"):
+        try:
+            if any(is_leftover(p.name) for p in folder.iterdir()):
+                return True
+        except OSError:
+            continue
+    return False
 
 
 def write_stamp(out_dir: Path, inputs: Inputs, files: list[Path], result: dict[str, Any]) -> Path:

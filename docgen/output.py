@@ -96,6 +96,10 @@ def output_lock(out_dir: Path) -> Iterator[None]:
 _LEFTOVER = re.compile(r"^\..+\.[a-z0-9_]{8}\.tmp$")
 
 
+def is_leftover(name: str) -> bool:
+    return bool(_LEFTOVER.match(name))
+
+
 def remove_leftovers(out_dir: Path) -> list[str]:
     """Delete temporary files a killed build left (call only while holding the folder's lock,
     so none of them belongs to a running writer). Returns their names relative to ``out_dir``."""
