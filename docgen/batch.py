@@ -13,7 +13,7 @@ from collections.abc import Callable
 from pathlib import Path
 from typing import TextIO
 
-from .errors import DocgenError, SpecError, SpecIssue, printable
+from .errors import DocgenError, SpecError, SpecIssue, close_quotes, printable
 from .incremental import Outcome, build_incremental, check_up_to_date, out_dir_for
 
 
@@ -193,7 +193,7 @@ def summary_table(outcomes: list[Outcome], *, strict: bool = False, out_root: Pa
         seconds = "-" if o.action == "error" else f"{o.seconds:.1f} s"
         what = printable(_what(o, strict))
         if len(what) > 60:
-            what = what[:57] + "..."
+            what = close_quotes(what[:56]) + "..."
         rows.append((printable(o.spec), _status_word(o), what, seconds, o.action))
     widths = [max(len(r[k]) for r in [header, *rows]) for k in range(len(header))]
 

@@ -26,11 +26,20 @@ def printable(text: str) -> str:
                             else f"\\u{ord(m.group()):04x}", text)
 
 
+def close_quotes(text: str) -> str:
+    """``text`` with a quote that a cut left open closed again, so a cut message still reads
+    as quoted text (a lost closing quote makes the value look like it runs on)."""
+    for quote in ("'", '"'):
+        if text.count(quote) % 2:
+            text += quote
+    return text
+
+
 def clip(text: str, limit: int) -> str:
     """``text`` cut to about ``limit`` characters, saying how long it was."""
     if len(text) <= limit:
         return text
-    return f"{text[: limit - 30]}... ({len(text)} characters)"
+    return f"{close_quotes(text[: limit - 30])}... ({len(text)} characters)"
 
 
 class DocgenError(Exception):
