@@ -45,7 +45,8 @@ QUANTITY_FIELDS = FIELDS + [("transformer", "winding_resistance"), ("protection"
                             ("protection", "discharge_time"), ("reservoir", "tolerance"),
                             ("environment", "required_life"), ("margins", "warn_band")]
 CONTROL = re.compile("[\x00-\x08\x0b-\x1f\x7f-\x9f\u202a-\u202e\u2066-\u2069]")
-INTERNAL = ("float division by zero", "ZeroDivisionError", "Traceback", "math domain error", "object has no attribute",
+INTERNAL = ("float division by zero", "ZeroDivisionError", "Traceback", "math domain error",
+            "object has no attribute",
             "NoStandardValue", "OverflowError", "RecursionError")
 UNICODE_DIGITS = "\u0660\u0661\u0664\u06f3\u0966\u09e7\uff11\uff15\U0001d7d8\u0e51"
 
@@ -96,7 +97,7 @@ def _set(text: str, section: str, key: str, value: str) -> str:
     return _replace(text, section, key, value)
 
 
-# --------------------------------------------------------------------------- one generator per cause
+# ----------------------------------------------------------------------- one generator per cause
 
 def gen_field_garbage(rng):
     sec, key = _field(rng)
@@ -469,8 +470,8 @@ def folder_cases(t: Tally, tmp: Path) -> None:
     spec.write_text(BASE + '\n[parts]\nlibrary = "big.toml"\n')
     start = time.perf_counter()
     code, o, e, tb = run_main(["check", str(spec)])
-    judge(t, Case("parts library size limit", "", "bad", "at most", files={"big.toml": b""}), spec, code, o, e, tb,
-          time.perf_counter() - start)
+    judge(t, Case("parts library size limit", "", "bad", "at most", files={"big.toml": b""}),
+          spec, code, o, e, tb, time.perf_counter() - start)
     # diff --rev: the revision's spec names a file outside the repository
     repo = tmp / "repo"
     repo.mkdir()

@@ -43,7 +43,8 @@ def clip(text: str, limit: int) -> str:
 
 
 class DocgenError(Exception):
-    """Base of every error docgen raises on purpose (bad input, infeasible design, render failure)."""
+    """Base of every error docgen raises on purpose (bad input, infeasible design, render
+    failure)."""
 
     exit_code = 1
 
