@@ -36,10 +36,21 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
 from docgen.cli import main  # noqa: E402
-from tests.conftest import DEMO, DEMO_STANDALONE  # noqa: E402
+from tests.conftest import DEMO, DEMO_STANDALONE, standalone  # noqa: E402
 from tests.e2e.test_robustness import FIELDS, _replace, _toml_value  # noqa: E402
 
 BASE = DEMO_STANDALONE.replace("samples = 400", "samples = 0")
+
+
+def _no_monte_carlo(text: str) -> str:
+    text = standalone(text)
+    return text.replace("samples = 400", "samples = 0") if "[analysis]" in text else \
+        text + "\n[analysis]\nsamples = 0\n"
+
+
+# Every demo spec (bridge, center-tap, half-wave, split; zener, follower, regulators) is a base.
+BASES = [BASE] + [_no_monte_carlo(p.read_text()) for p in sorted((ROOT / "specs").glob("*.toml"))
+                  if p != DEMO]
 LIBRARY = (ROOT / "specs" / "parts" / "demo-parts.toml").read_text()
 QUANTITY_FIELDS = FIELDS + [("transformer", "winding_resistance"), ("protection", "safe_voltage"),
                             ("protection", "discharge_time"), ("reservoir", "tolerance"),
@@ -92,54 +103,54 @@ def _field(rng: random.Random) -> tuple[str, str]:
 
 
 def _set(text: str, section: str, key: str, value: str) -> str:
-    if f"[{section}]" not in text and section != "output" and not section.startswith("output."):
-        text += f"\n[{section}]\n"
+    if f"[{section}]" not in text and section != "output":
+        text += f"\n[{section}]\n"  # [output.x] at the end belongs to the last [[output]]
     return _replace(text, section, key, value)
 
 
 # ----------------------------------------------------------------------- one generator per cause
 
-def gen_field_garbage(rng):
+def gen_field_garbage(rng, base):
     sec, key = _field(rng)
-    return Case("any value in any field", _set(BASE, sec, key, _toml_value(garbage(rng))))
+    return Case("any value in any field", _set(base, sec, key, _toml_value(garbage(rng))))
 
 
-def gen_huge_integer(rng):
+def gen_huge_integer(rng, base):
     sec, key = _field(rng)
     digits = rng.choice([310, 400, 1000, 4300])
     value = str(rng.choice([1, -1]) * (10 ** (digits - 1) + rng.randrange(10**6)))
-    return Case("integer too wide for a float", _set(BASE, sec, key, value), "bad",
+    return Case("integer too wide for a float", _set(base, sec, key, value), "bad",
                 key)
 
 
-def gen_long_literal(rng):
+def gen_long_literal(rng, base):
     sec, key = _field(rng)
     return Case("integer literal over 4300 digits",
-                _set(BASE, sec, key, "9" * rng.randint(4301, 20000)), "bad")
+                _set(base, sec, key, "9" * rng.randint(4301, 20000)), "bad")
 
 
-def gen_deep_nesting(rng):
+def gen_deep_nesting(rng, base):
     depth = rng.choice([33, 100, 1000, 2000, 5000])
     value = ("[" * depth + "]" * depth) if rng.random() < 0.5 else \
         ("{a=" * depth + "1" + "}" * depth)
-    return Case("nesting ~2000 deep", BASE + f"x = {value}\n", "bad")
+    return Case("nesting ~2000 deep", base + f"x = {value}\n", "bad")
 
 
-def gen_dotted_key(rng):
+def gen_dotted_key(rng, base):
     parts = rng.choice([65, 1000, 20000, 60000])
     key = ".".join(rng.choice(["a", '"q"', "b1"]) for _ in range(parts))
-    return Case("very long dotted key", BASE + key + " = 1\n", "bad")
+    return Case("very long dotted key", base + key + " = 1\n", "bad")
 
 
-def gen_library_path(rng):
+def gen_library_path(rng, base):
     ref = rng.choice(["a\\u0000b", "x\\u001b[2J", "../outside.toml", "/etc/passwd",
                       "https://example.invalid/p.toml", "~/p.toml", "../../../../etc/hostname",
                       "sub/../../outside.toml", "missing.toml", "/dev/zero", "."])
     return Case("parts library path (NUL, outside, URL)",
-                BASE + f'\n[parts]\nlibrary = "{ref}"\n', "bad", "parts.library")
+                base + f'\n[parts]\nlibrary = "{ref}"\n', "bad", "parts.library")
 
 
-def gen_library_content(rng):
+def gen_library_content(rng, base):
     lib = LIBRARY
     for _ in range(rng.randint(1, 3)):
         kind = rng.randrange(6)
@@ -161,89 +172,89 @@ def gen_library_content(rng):
         else:
             lines[i] = f'{key} = "{rng.choice(UNICODE_DIGITS)}{rng.choice(UNICODE_DIGITS)} V"'
         lib = "\n".join(lines) + "\n"
-    return Case("mutated parts library", BASE + '\n[parts]\nlibrary = "parts.toml"\n', "any",
+    return Case("mutated parts library", base + '\n[parts]\nlibrary = "parts.toml"\n', "any",
                 files={"parts.toml": lib.encode("utf-8", "surrogatepass")})
 
 
-def gen_bleeder(rng):
+def gen_bleeder(rng, base):
     extra = rng.choice([f'discharge_time = "{rng.choice([0.001, 0.1, 1, 30, 1e4])} s"',
                         f'safe_voltage = "{rng.choice([1e-9, 1e-3, 0.5, 5, 500])} V"'])
     return Case("bleeder with odd discharge_time / safe_voltage",
-                BASE + f"\n[protection]\nbleeder = true\n{extra}\n", "valid")
+                base + f"\n[protection]\nbleeder = true\n{extra}\n", "valid")
 
 
-def gen_zero(rng):
+def gen_zero(rng, base):
     sec, key = _field(rng)
     return Case("zero in a quantity (division by zero)",
-                _set(BASE, sec, key, rng.choice(["0", "0.0", '"0 ohm"', '"0 V"', '"0 %"'])))
+                _set(base, sec, key, rng.choice(["0", "0.0", '"0 ohm"', '"0 V"', '"0 %"'])))
 
 
-def gen_mains(rng):
+def gen_mains(rng, base):
     value = rng.choice([0.125, 0.5, 1, 5, 12, 24, 48, 100, 127, 400, 690, 999])
-    return Case("odd mains voltage (fuse sizing)", _set(BASE, "mains", "nominal", str(value)),
+    return Case("odd mains voltage (fuse sizing)", _set(base, "mains", "nominal", str(value)),
                 "valid")
 
 
-def gen_unicode_digits(rng):
+def gen_unicode_digits(rng, base):
     sec, key = _field(rng)
     digits = "".join(rng.choice(UNICODE_DIGITS) for _ in range(rng.randint(1, 4)))
-    return Case("unicode digits as numbers", _set(BASE, sec, key, f'"{digits} V"'), "bad", key)
+    return Case("unicode digits as numbers", _set(base, sec, key, f'"{digits} V"'), "bad", key)
 
 
-def gen_control_chars(rng):
+def gen_control_chars(rng, base):
     esc = rng.choice(["\\u001b[31m", "\\u001b]0;pwned\\u0007", "\\u202e", "\\u0008" * 5,
                       "\\r", "\\u009b2J"])
     where = rng.randrange(3)
     if where == 0:
-        return Case("terminal escapes in a key", BASE + f'\n["k{esc}x"]\ny = 1\n', "bad")
+        return Case("terminal escapes in a key", base + f'\n["k{esc}x"]\ny = 1\n', "bad")
     if where == 1:
-        return Case("terminal escapes in a value", _set(BASE, *_field(rng), f'"{esc}1 V"'), "bad")
+        return Case("terminal escapes in a value", _set(base, *_field(rng), f'"{esc}1 V"'), "bad")
     return Case("terminal escapes in the title",
-                BASE.replace('title = "', f'title = "{esc}', 1), "valid")
+                base.replace('title = "', f'title = "{esc}', 1), "valid")
 
 
-def gen_huge_value(rng):
+def gen_huge_value(rng, base):
     n = rng.choice([1000, 10_000, 100_000, 400_000])
     sec, key = _field(rng)
-    return Case("huge value echoed", _set(BASE, sec, key, '"' + "x" * n + '"'), "bad", key)
+    return Case("huge value echoed", _set(base, sec, key, '"' + "x" * n + '"'), "bad", key)
 
 
-def gen_many_keys(rng):
+def gen_many_keys(rng, base):
     n = rng.choice([50, 2000, 20000])
     section = rng.choice(["mains", "environment", "rectifier"])
     keys = "".join(f"k{i} = 1\n" for i in range(n))
-    return Case("many unknown keys", BASE.replace(f"[{section}]", f"[{section}]\n{keys}", 1),
+    return Case("many unknown keys", base.replace(f"[{section}]", f"[{section}]\n{keys}", 1),
                 "bad", "more problems")
 
 
-def gen_extreme_float(rng):
+def gen_extreme_float(rng, base):
     sec, key = _field(rng)
     return Case("extreme float formatting",
-                _set(BASE, sec, key, rng.choice(["1e-308", "5e-324", "1.7976931348623157e308",
+                _set(base, sec, key, rng.choice(["1e-308", "5e-324", "1.7976931348623157e308",
                                                  '"1e-300 V"', "-1e-308"])))
 
 
-def gen_bom(rng):
-    return Case("UTF-8 byte-order mark", raw=b"\xef\xbb\xbf" + BASE.encode(), expect="bad",
+def gen_bom(rng, base):
+    return Case("UTF-8 byte-order mark", raw=b"\xef\xbb\xbf" + base.encode(), expect="bad",
                 names="byte-order mark")
 
 
-def gen_samples(rng):
+def gen_samples(rng, base):
     n = rng.choice([10_001, 100_000, 10**9, -1])
-    return Case("analysis.samples bound", BASE.replace("samples = 0", f"samples = {n}"), "bad",
+    return Case("analysis.samples bound", base.replace("samples = 0", f"samples = {n}"), "bad",
                 "analysis.samples")
 
 
-def gen_quotes(rng):
+def gen_quotes(rng, base):
     value = rng.choice(["'", '"', "it's", 'a "b"', "\\", "x" * 200 + "'"])
     sec, key = _field(rng)
-    return Case("quotes in a value", _set(BASE, sec, key, _toml_value(value)), "bad", key)
+    return Case("quotes in a value", _set(base, sec, key, _toml_value(value)), "bad", key)
 
 
-def gen_binary(rng):
+def gen_binary(rng, base):
     blob = bytes(rng.randrange(256) for _ in range(rng.randint(1, 300)))
-    cut = rng.randrange(len(BASE))
-    raw = BASE[:cut].encode() + blob + BASE[cut:].encode()
+    cut = rng.randrange(len(base))
+    raw = base[:cut].encode() + blob + base[cut:].encode()
     return Case("binary bytes in the file", raw=raw, expect="any")
 
 
@@ -504,7 +515,8 @@ def main_() -> int:
         tmp = Path(tmp_name)
         for k in range(args.count):
             gen = rng.choices([g for _, g in GENERATORS], weights)[0]
-            run_case(t, gen(rng), tmp / f"p{k % 50}", k)
+            base = BASE if rng.random() < 0.5 else rng.choice(BASES)  # the demo half the time
+            run_case(t, gen(rng, base), tmp / f"p{k % 50}", k)
             if (k + 1) % 500 == 0:
                 print(f"  {k + 1} inputs, {time.perf_counter() - began:.0f} s", file=sys.stderr)
         build_cases(t, tmp, rng, args.builds)
