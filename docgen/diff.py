@@ -542,6 +542,9 @@ def check_html_target(target: Path, inputs: list[Path]) -> None:
             pass
     if target.is_dir():
         raise RenderError(f"{target}: is a folder; expected a file name for the HTML report")
+    if target.exists() and not target.is_file():  # a FIFO would block the read below
+        raise RenderError(f"{target}: is not a regular file (a device, pipe or socket); "
+                          "expected a file name for the HTML report")
     if target.exists():
         try:
             with open(target, "rb") as fh:

@@ -180,9 +180,12 @@ def stamp_path(out_dir: Path) -> Path:
 
 
 def read_stamp(out_dir: Path) -> dict[str, Any] | None:
+    path = stamp_path(out_dir)
     try:
-        stamp = json.loads(stamp_path(out_dir).read_text(encoding="utf-8"))
-    except (OSError, ValueError):
+        if not path.is_file() or path.stat().st_size > 10_000_000:  # a FIFO would block
+            return None
+        stamp = json.loads(path.read_text(encoding="utf-8"))
+    except (OSError, ValueError, RecursionError):
         return None
     if not isinstance(stamp, dict) or stamp.get("stamp_format") != STAMP_FORMAT:
         return None

@@ -148,6 +148,15 @@ def test_dev_zero_and_a_fifo_are_refused_without_reading(tmp_path, command):
         assert "not a regular file" in proc.stderr and "Traceback" not in proc.stderr
 
 
+def test_diff_report_target_that_is_a_fifo_is_refused(tmp_path, capsys):
+    fifo = tmp_path / "report.html"
+    os.mkfifo(fifo)
+    spec = tmp_path / "s.toml"
+    spec.write_text(BASE)
+    assert main(["diff", str(spec), str(spec), "-o", str(fifo)]) == 2
+    assert "not a regular file" in capsys.readouterr().err
+
+
 def test_bounded_read_stops_even_when_the_size_is_unknown(tmp_path):
     from docgen.errors import SpecError
     from docgen.textfile import read_bounded
