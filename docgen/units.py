@@ -52,9 +52,10 @@ _NO_PREFIX = {"%", "min", "h", "year", "y", "degC", "\u00b0C", "C", "ppm", "%/de
               "%/\u00b0C", "ppm/K", "degC/W", "\u00b0C/W", "C/W", "K/W", "1/K"}
 
 # ASCII digits only: Python's float() also reads Arabic-Indic or full-width digits, which a
-# requirements file should not silently accept as numbers.
-_NUMBER = re.compile(r"^\s*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)\s*(.*?)\s*$",
-                     re.S)
+# requirements file should not silently accept as numbers. Only spaces and tabs around the
+# parts: a carriage return or another control character in a value is a mistake to report.
+_NUMBER = re.compile(r"^[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)"
+                     r"[ \t]*(.*?)[ \t]*\Z", re.S)
 
 
 class UnitError(ValueError):

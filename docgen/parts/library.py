@@ -175,8 +175,8 @@ class _Length(_Reader):
         if isinstance(raw, (int, float)):
             value = as_float(raw)
         elif isinstance(raw, str):
-            m = re.fullmatch(r"\s*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)"
-                             r"\s*([a-z]*)\s*", raw)
+            m = re.fullmatch(r"[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)"
+                             r"[ \t]*([a-z]*)[ \t]*", raw)
             if not m or m.group(2) not in self._UNITS:
                 raise ValueError(f"expected {self.expects}, got {show_raw(raw)}")
             value = float(m.group(1)) * self._UNITS[m.group(2)]
@@ -198,7 +198,8 @@ class _Decibel(_Reader):
         if isinstance(raw, (int, float)):
             value = as_float(raw)
         elif isinstance(raw, str):
-            m = re.fullmatch(r"\s*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+))\s*(dB)?\s*", raw)
+            m = re.fullmatch(r"[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+))[ \t]*(dB)?[ \t]*",
+                             raw)
             if not m:
                 raise ValueError(f"expected {self.expects}, got {show_raw(raw)}")
             value = float(m.group(1))

@@ -87,6 +87,12 @@ def test_unicode_digits_are_not_numbers(tmp_path, capsys):
          "output[0].load_max", "expected")
 
 
+@pytest.mark.parametrize("value", ['"\\r40 mA"', '"40 mA\\n"', '"\\u001c40 mA"'])
+def test_control_characters_around_a_number_are_refused(tmp_path, capsys, value):
+    # found by bench/robustness.py: regular-expression whitespace took \r and \x1c as spaces
+    _bad(tmp_path, _replace(BASE, "output", "load_max", value), capsys, "output[0].load_max")
+
+
 def test_monte_carlo_samples_have_an_upper_bound(tmp_path, capsys):
     _bad(tmp_path, BASE.replace("samples = 0", "samples = 100000"), capsys,
          "analysis.samples", "at most 10000")
