@@ -11,6 +11,7 @@ from typing import Any, Literal
 
 from pydantic import BaseModel, ConfigDict, Field, ValidationInfo, field_validator, model_validator
 
+from ..units import show_raw
 from .quantities import (
     ApparentPower,
     Capacitance,
@@ -450,7 +451,7 @@ class Analysis(Section):
         # 1 % and 99 % points to a fraction of a percent, and keeps `docgen check` near 10 s.
         if value > MAX_SAMPLES:
             raise ValueError(f"expected at most {MAX_SAMPLES} Monte Carlo samples (about 1 ms "
-                             f"each), got {value}")
+                             f"each), got {show_raw(value)}")
         return value
 
 
