@@ -70,6 +70,7 @@ def output_lock(out_dir: Path) -> Iterator[None]:
     if key in _held:
         yield
         return
+    created = not out_dir.exists()
     prepare_dir(out_dir)
     try:
         fd = os.open(out_dir / LOCK_NAME, os.O_RDWR | os.O_CREAT, 0o644)
@@ -87,9 +88,20 @@ def output_lock(out_dir: Path) -> Iterator[None]:
             yield
         finally:
             _held.discard(key)
+            if created:  # a build that wrote nothing (bad input) leaves no folder behind
+                _remove_if_only_lock(out_dir)
             fcntl.flock(fd, fcntl.LOCK_UN)
     finally:
         os.close(fd)
+
+
+def _remove_if_only_lock(out_dir: Path) -> None:
+    try:
+        if [p.name for p in out_dir.iterdir()] == [LOCK_NAME]:
+            (out_dir / LOCK_NAME).unlink()
+            out_dir.rmdir()
+    except OSError:
+        pass
 
 
 # write_atomic's private files: "." + target name + "." + mkstemp's 8 random characters + ".tmp"

@@ -196,9 +196,11 @@ def test_outside_git_the_project_is_the_specs_own_folder(tmp_path, capsys):
     for ref in ("../outside.toml", str(tmp_path / "outside.toml"), "a\\u0000b"):
         spec = folder / "spec.toml"
         spec.write_text(BASE + f'\n[parts]\nlibrary = "{ref}"\n')
-        assert main(["check", str(spec)]) == 2
-        err = capsys.readouterr().err
-        assert "parts.library" in err and "secret_key_name" not in err
+        for command in (["check"], ["build", "-o", str(tmp_path / "out"), "--no-pdf"]):
+            assert main([command[0], str(spec), *command[1:]]) == 2
+            err = capsys.readouterr().err
+            assert "parts.library" in err and "secret_key_name" not in err
+    assert not (tmp_path / "out" / "spec").exists()  # refused input leaves no output folder
 
 
 def _git(cwd: Path, *args: str) -> None:
