@@ -13,7 +13,7 @@ from collections.abc import Callable
 from pathlib import Path
 from typing import TextIO
 
-from .errors import DocgenError, SpecError, SpecIssue
+from .errors import DocgenError, SpecError, SpecIssue, close_quotes, printable
 from .incremental import Outcome, build_incremental, check_up_to_date, out_dir_for
 
 
@@ -154,9 +154,9 @@ class Progress:
     def __call__(self, outcome: Outcome) -> None:
         self.count += 1
         width = len(str(self.total))
-        head = f"[{self.count:>{width}}/{self.total}] {outcome.spec}: "
+        head = f"[{self.count:>{width}}/{self.total}] {printable(outcome.spec)}: "
         if outcome.action == "error":
-            line = head + "ERROR: " + outcome.reason
+            line = head + "ERROR: " + printable(outcome.reason)
         elif outcome.action == "up to date":
             line = head + f"up to date, {_status_word(outcome)}"
         else:
@@ -164,6 +164,9 @@ class Progress:
             line = head + f"built in {outcome.seconds:.1f} s{why}, {_status_word(outcome)}"
         if outcome.status == "infeasible":
             line += f": {outcome.reason}"
+        if outcome.removed:
+            line += f" (removed stale: {', '.join(outcome.removed)})"
+        line = printable(line)
         if self.tty:
             self.stream.write("\r\x1b[K")
         self.stream.write(line + "\n")
@@ -188,10 +191,10 @@ def summary_table(outcomes: list[Outcome], *, strict: bool = False, out_root: Pa
     rows = []
     for o in outcomes:
         seconds = "-" if o.action == "error" else f"{o.seconds:.1f} s"
-        what = _what(o, strict)
+        what = printable(_what(o, strict))
         if len(what) > 60:
-            what = what[:57] + "..."
-        rows.append((o.spec, _status_word(o), what, seconds, o.action))
+            what = close_quotes(what[:56]) + "..."
+        rows.append((printable(o.spec), _status_word(o), what, seconds, o.action))
     widths = [max(len(r[k]) for r in [header, *rows]) for k in range(len(header))]
 
     def line(cells: tuple[str, ...]) -> str:

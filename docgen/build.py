@@ -2,12 +2,19 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 
 from .design import Design
 from .errors import InfeasibleDesign
-from .output import prepare_dir, safe_stem, write_atomic
+from .output import (
+    output_lock,
+    prepare_dir,
+    remove_leftovers,
+    remove_stale,
+    safe_stem,
+    write_atomic,
+)
 from .pipeline import run
 from .progress import stage
 from .spec import load_requirements
@@ -21,6 +28,7 @@ class BuildResult:
     files: list[Path]
     design: Design | None
     reason: str = ""
+    removed: list[str] = field(default_factory=list)  # stale outputs of an earlier build
 
 
 def design_for(spec_path: Path) -> Design:
@@ -28,14 +36,32 @@ def design_for(spec_path: Path) -> Design:
 
 
 def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResult:
+    """Build one spec into OUT/<stem>/ while holding the folder's lock; afterwards the folder
+    holds this build's outputs only (stale ones of an earlier build are removed and named)."""
     with stage("reading the requirements"):
         loaded = load_requirements(spec_path)
     out_dir = out_root / safe_stem(spec_path)
+    with output_lock(out_dir):
+        remove_leftovers(out_dir)
+        previous = _previous_outputs(out_dir)
+        result = _build_into(loaded, spec_path, out_dir, pdf)
+        result.removed = remove_stale(out_dir, result.files, previous)
+    return result
+
+
+def _previous_outputs(out_dir: Path) -> list[str]:
+    from .incremental import read_stamp
+
+    stamp = read_stamp(out_dir) or {}
+    outputs = stamp.get("outputs")
+    return list(outputs) if isinstance(outputs, dict) else []
+
+
+def _build_into(loaded, spec_path: Path, out_dir: Path, pdf: bool) -> BuildResult:
     try:
         with stage("sizing, corners and Monte Carlo"):
             design = run(loaded)
     except InfeasibleDesign as exc:
-        prepare_dir(out_dir)
         import json
 
         payload = {"status": "infeasible", "infeasible_reason": str(exc),
@@ -44,11 +70,9 @@ def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResu
         write_atomic(target, json.dumps(payload, sort_keys=True, indent=1) + "\n")
         return BuildResult(spec_path, out_dir, "infeasible", [target], None, str(exc))
 
+    from .render.figures import draw_plots
     from .render.html import render_html
     from .render.results_json import results_json
-
-    prepare_dir(out_dir)
-    from .render.figures import draw_plots
 
     with stage("plots and schematic"):
         plots = draw_plots(design)

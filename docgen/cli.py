@@ -11,7 +11,7 @@ import sys
 from pathlib import Path
 
 from . import __version__
-from .errors import DocgenError
+from .errors import DocgenError, printable
 
 EPILOG = """\
 examples:
@@ -298,7 +298,7 @@ def _cmd_check(args) -> int:
             loaded_all = _load_all(specs)
         for label, loaded, error in loaded_all:
             if error is not None:
-                print(f"docgen: error: {error}", file=sys.stderr)
+                print(f"docgen: error: {printable(str(error))}", file=sys.stderr)
                 entries.append(cli_json.problem_entry(label, "error", str(error)))
                 worst = max(worst, error.exit_code)
                 continue
@@ -307,7 +307,7 @@ def _cmd_check(args) -> int:
                     design = run(loaded)
             except InfeasibleDesign as exc:
                 if text:
-                    print(f"{label}: INFEASIBLE: {exc}")
+                    print(f"{printable(label)}: INFEASIBLE: {printable(str(exc))}")
                 entries.append(cli_json.problem_entry(label, "infeasible", str(exc)))
                 worst = max(worst, 1)
                 continue
@@ -316,7 +316,7 @@ def _cmd_check(args) -> int:
             if not text:
                 continue
             counts = design.counts()
-            print(f"{label}: {design.status.upper()} ({counts['pass']} pass, "
+            print(f"{printable(label)}: {design.status.upper()} ({counts['pass']} pass, "
                   f"{counts['warn']} warn, {counts['fail']} fail)")
             for ch in design.checks:
                 if ch.status != "pass" or args.verbose:
@@ -366,12 +366,15 @@ def _build_single(path: Path, args) -> int:
     if args.quiet:
         return code
     note = " (up to date; --force rebuilds)" if outcome.action == "up to date" else ""
+    shown = printable(str(path))
     if outcome.status == "infeasible":
-        print(f"{path}: INFEASIBLE: {outcome.reason}{note}")
+        print(f"{shown}: INFEASIBLE: {printable(outcome.reason)}{note}")
     else:
         counts = outcome.counts
-        print(f"{path}: {outcome.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
-              f"{counts['fail']} fail) -> {outcome.out_dir}/{note}")
+        print(f"{shown}: {outcome.status.upper()} ({counts['pass']} pass, {counts['warn']} warn, "
+              f"{counts['fail']} fail) -> {printable(str(outcome.out_dir))}/{note}")
+    if outcome.removed:
+        print(f"  removed stale outputs of the previous build: {', '.join(outcome.removed)}")
     return code
 
 
@@ -507,7 +510,7 @@ def main(argv: list[str] | None = None) -> int:
     try:
         return handlers[args.command](args)
     except DocgenError as exc:
-        print(f"docgen: error: {exc}", file=sys.stderr)
+        print(f"docgen: error: {printable(str(exc))}", file=sys.stderr)
         if getattr(args, "format", "text") == "json":
             from .cli_json import error_document
 

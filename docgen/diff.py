@@ -12,6 +12,7 @@ count as a change of the design.
 
 from __future__ import annotations
 
+import dataclasses
 import math
 import os
 import subprocess
@@ -92,10 +93,20 @@ def load_text_side(text: str, name: str, label: str,
         target = spec_dir / (Path(name).name or "spec.toml")
         target.write_text(text, encoding="utf-8")
         try:
-            loaded = load_requirements(target)
+            # the temporary folder stands for the project: references stay inside it
+            loaded = dataclasses.replace(load_requirements(target), project_root=root)
+            side = _compute(label, loaded)
         except SpecError as exc:
-            raise SpecError(label, exc.issues) from None
-        side = _compute(label, loaded)
+            # name the file the user knows, never the temporary copy (gone when this returns)
+            where = exc.path
+            if Path(where) == target:
+                where = label
+            elif Path(where).is_relative_to(root):
+                rel = os.path.relpath(where, spec_dir).replace(os.sep, "/")
+                where = f"{rel} (beside {label})"
+            issues = [SpecIssue(i.location, i.message.replace(str(root), "<project>"))
+                      for i in exc.issues]
+            raise SpecError(where, issues) from None
     side.notes = list(notes or [])
     return side
 
@@ -155,19 +166,29 @@ def load_rev_side(spec: Path, rev: str) -> Side:
     folder = spec.parent if str(spec.parent) else Path(".")
     files: list[tuple[str, bytes]] = []
     notes: list[str] = []
+    from .parts.library import MAX_BYTES
+    from .parts.location import confine
+    from .textfile import read_bounded
+
+    base = spec.resolve().parent
     for role, ref in extra_inputs(Path(spec.name), text.encode("utf-8")):
-        if ref.is_absolute():
-            notes.append(f"{role} {ref}: an absolute path, read as it is on disk now")
-            continue
-        rel = os.path.normpath(ref).replace(os.sep, "/")
+        # The same confinement as the working copy's: the revision's spec may name any path,
+        # and reading it would echo the key names of whatever file it is.
+        try:
+            target = confine(spec, str(ref))
+        except SpecError as exc:
+            raise SpecError(f"{spec} at {rev}", exc.issues) from None
+        rel = os.path.relpath(target, base).replace(os.sep, "/")
         data, why = _git_blob(folder, rev, rel)
         if data is None:
-            try:
-                data = (folder / rel).read_bytes()
-            except OSError:
+            if not target.is_file():
                 notes.append(f"{role} {rel}: neither in git at {rev} ({why}) nor on disk")
                 continue
+            data = read_bounded(target, MAX_BYTES, "a parts library .toml file")
             notes.append(f"{role} {rel}: not in git at {rev} ({why}); the file on disk was used")
+        elif len(data) > MAX_BYTES:
+            raise SpecError(f"{rel} at {rev}", [SpecIssue(
+                "", f"file is {len(data)} bytes; expected at most {MAX_BYTES}")])
         files.append((rel, data))
     return load_text_side(text, spec.name, f"{spec} at {rev}", files, notes)
 
@@ -521,6 +542,9 @@ def check_html_target(target: Path, inputs: list[Path]) -> None:
             pass
     if target.is_dir():
         raise RenderError(f"{target}: is a folder; expected a file name for the HTML report")
+    if target.exists() and not target.is_file():  # a FIFO would block the read below
+        raise RenderError(f"{target}: is not a regular file (a device, pipe or socket); "
+                          "expected a file name for the HTML report")
     if target.exists():
         try:
             with open(target, "rb") as fh:

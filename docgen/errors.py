@@ -1,12 +1,50 @@
-"""Error types: one base class so the CLI can map every expected failure to a clear line."""
+"""Error types: one base class so the CLI can map every expected failure to a clear line.
+
+Messages quote the user's own text (keys, values, file names), so they are bounded and made
+printable here, once: a control character in a key must not drive the user's terminal, and a
+file with 20,000 unknown keys must not print 20,000 lines.
+"""
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass, field
+
+MAX_ISSUES_SHOWN = 20
+MAX_LOCATION = 120
+MAX_MESSAGE = 600
+
+# C0 and C1 controls except newline and tab, DEL, and the bidirectional overrides that can make
+# text display in another order than it is stored.
+_UNPRINTABLE = re.compile("[\x00-\x08\x0b-\x1f\x7f-\x9f\u200e\u200f\u202a-\u202e"
+                          "\u2066-\u2069]")
+
+
+def printable(text: str) -> str:
+    """``text`` with every terminal control character shown as an escape such as ``\x1b``."""
+    return _UNPRINTABLE.sub(lambda m: repr(m.group())[1:-1] if ord(m.group()) < 0x100
+                            else f"\\u{ord(m.group()):04x}", text)
+
+
+def close_quotes(text: str) -> str:
+    """``text`` with a quote that a cut left open closed again, so a cut message still reads
+    as quoted text (a lost closing quote makes the value look like it runs on)."""
+    for quote in ("'", '"'):
+        if text.count(quote) % 2:
+            text += quote
+    return text
+
+
+def clip(text: str, limit: int) -> str:
+    """``text`` cut to about ``limit`` characters, saying how long it was."""
+    if len(text) <= limit:
+        return text
+    return f"{close_quotes(text[: limit - 30])}... ({len(text)} characters)"
 
 
 class DocgenError(Exception):
-    """Base of every error docgen raises on purpose (bad input, infeasible design, render failure)."""
+    """Base of every error docgen raises on purpose (bad input, infeasible design, render
+    failure)."""
 
     exit_code = 1
 
@@ -19,7 +57,9 @@ class SpecIssue:
     message: str
 
     def __str__(self) -> str:
-        return f"{self.location}: {self.message}" if self.location else self.message
+        where = clip(self.location, MAX_LOCATION)
+        message = clip(self.message, MAX_MESSAGE)
+        return printable(f"{where}: {message}" if where else message)
 
 
 @dataclass
@@ -34,10 +74,13 @@ class SpecError(ValueError, DocgenError):
     exit_code = 2
 
     def __str__(self) -> str:
+        path = printable(clip(str(self.path), 300))
         if len(self.issues) == 1:
-            return f"{self.path}: {self.issues[0]}"
-        lines = [f"{self.path}: {len(self.issues)} problems"]
-        lines += [f"  - {issue}" for issue in self.issues]
+            return f"{path}: {self.issues[0]}"
+        lines = [f"{path}: {len(self.issues)} problems"]
+        lines += [f"  - {issue}" for issue in self.issues[:MAX_ISSUES_SHOWN]]
+        if len(self.issues) > MAX_ISSUES_SHOWN:
+            lines.append(f"  ... and {len(self.issues) - MAX_ISSUES_SHOWN} more problems")
         return "\n".join(lines)
 
 

@@ -12,7 +12,8 @@ records a SHA-256 of every input that can change the outputs:
 * the options that change the outputs (PDF on or off).
 
 A spec is up to date when the stamp's key equals the key of the current inputs and every output
-file listed in the stamp still exists with its recorded size. A rebuild first marks the old
+file listed in the stamp still exists with its recorded SHA-256 (content, not size: two
+different reports can have the same length). A rebuild first marks the old
 stamp as "building", so a build that stops half way never leaves a stamp that vouches for mixed
 outputs.
 
@@ -23,6 +24,8 @@ from __future__ import annotations
 
 import hashlib
 import json
+import os
+import stat
 import sys
 import time
 from collections.abc import Callable
@@ -43,10 +46,14 @@ def _sha256_file(path: Path) -> str | None:
     """SHA-256 of a file's bytes, or None when it does not exist or cannot be read."""
     h = hashlib.sha256()
     try:
+        if not path.is_file():  # a device or FIFO named as an input never ends or blocks
+            return None
         with open(path, "rb") as fh:
+            if not stat.S_ISREG(os.fstat(fh.fileno()).st_mode):
+                return None
             for block in iter(lambda: fh.read(1 << 20), b""):
                 h.update(block)
-    except OSError:
+    except (OSError, ValueError):
         return None
     return h.hexdigest()
 
@@ -96,7 +103,10 @@ def tool_inputs() -> dict[str, Any]:
 def _parts_library(raw: dict[str, Any], spec_dir: Path) -> list[tuple[str, Path]]:
     parts = raw.get("parts")
     if isinstance(parts, dict) and isinstance(parts.get("library"), str) and parts["library"]:
-        return [("parts library", spec_dir / parts["library"])]
+        ref = parts["library"]
+        if any(ord(c) < 32 for c in ref) or "://" in ref:
+            return []  # refused by the build, which names the field
+        return [("parts library", spec_dir / ref)]
     return []
 
 
@@ -151,9 +161,12 @@ class Inputs:
 
 
 def current_inputs(spec: Path, *, pdf: bool) -> Inputs:
-    try:
-        data = spec.read_bytes()
-    except OSError:
+    from .errors import SpecError
+    from .textfile import SPEC_MAX_BYTES, read_bounded
+
+    try:  # bounded, and regular files only: the build itself reports what is wrong
+        data: bytes | None = read_bounded(spec, SPEC_MAX_BYTES)
+    except SpecError:
         data = None
     files = []
     if data is not None:
@@ -168,9 +181,12 @@ def stamp_path(out_dir: Path) -> Path:
 
 
 def read_stamp(out_dir: Path) -> dict[str, Any] | None:
+    path = stamp_path(out_dir)
     try:
-        stamp = json.loads(stamp_path(out_dir).read_text(encoding="utf-8"))
-    except (OSError, ValueError):
+        if not path.is_file() or path.stat().st_size > 10_000_000:  # a FIFO would block
+            return None
+        stamp = json.loads(path.read_text(encoding="utf-8"))
+    except (OSError, ValueError, RecursionError):
         return None
     if not isinstance(stamp, dict) or stamp.get("stamp_format") != STAMP_FORMAT:
         return None
@@ -208,20 +224,33 @@ def stale_reasons(stamp: dict[str, Any] | None, inputs: Inputs, out_dir: Path) -
                 reasons.append(label)
         if not reasons:
             reasons.append("stamp does not match")
+    if _has_leftovers(out_dir):
+        reasons.append("a killed build left temporary files")
     outputs = stamp.get("outputs")
     if not isinstance(outputs, dict) or not outputs:
         reasons.append("stamp lists no outputs")
         return reasons
     for name, info in sorted(outputs.items()):
         target = out_dir / name
-        try:
-            size = target.stat().st_size
-        except OSError:
+        if not target.is_file():
             reasons.append(f"output missing: {name}")
             continue
-        if isinstance(info, dict) and info.get("size") != size:
+        # By content, not size: two builds' reports can have the same length.
+        if not isinstance(info, dict) or info.get("sha256") != _sha256_file(target):
             reasons.append(f"output changed: {name}")
     return reasons
+
+
+def _has_leftovers(out_dir: Path) -> bool:
+    from .output import is_leftover
+
+    for folder in (out_dir, out_dir / "plots"):
+        try:
+            if any(is_leftover(p.name) for p in folder.iterdir()):
+                return True
+        except OSError:
+            continue
+    return False
 
 
 def write_stamp(out_dir: Path, inputs: Inputs, files: list[Path], result: dict[str, Any]) -> Path:
@@ -276,6 +305,7 @@ class Outcome:
     why: list[str] = field(default_factory=list)  # why it was rebuilt
     seconds: float = 0.0
     exit_code: int = 0  # for errors: the error's exit code
+    removed: list[str] = field(default_factory=list)  # stale outputs of an earlier build removed
 
 
 def _result_summary(build_result) -> dict[str, Any]:
@@ -327,18 +357,21 @@ def build_incremental(spec: Path, out_root: Path, *, pdf: bool = True, force: bo
 
     out_dir = out_dir_for(spec, out_root)
     inputs = current_inputs(spec, pdf=pdf)
-    if out_dir.is_dir():
+    from .output import output_lock
+    from .spec import load_requirements
+
+    load_requirements(spec)  # bad input is reported before the output folder is touched
+    with output_lock(out_dir):
         invalidate_stamp(out_dir)
-    result = build_one(spec, out_root, pdf=pdf)
-    summary = _result_summary(result)
-    # Stamp only when the inputs did not change while the build ran.
-    after = current_inputs(spec, pdf=pdf)
-    if after.key == inputs.key:
-        write_stamp(result.out_dir, inputs, result.files, summary)
+        result = build_one(spec, out_root, pdf=pdf)
+        summary = _result_summary(result)
+        # Stamp only when the inputs did not change while the build ran.
+        after = current_inputs(spec, pdf=pdf)
+        if after.key == inputs.key:
+            write_stamp(result.out_dir, inputs, result.files, summary)
     return Outcome(
         spec=str(spec), out_dir=str(result.out_dir), action="built", status=summary["status"],
         counts=summary["counts"], failing=summary["failing"], warnings=summary["warnings"],
         reason=summary["reason"], why=["forced"] if force else list(why or []),
-        seconds=time.perf_counter() - start,
+        seconds=time.perf_counter() - start, removed=list(result.removed),
     )
-

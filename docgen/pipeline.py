@@ -12,15 +12,15 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from functools import partial
-from pathlib import Path
 from typing import Any
 
 from . import __version__
 from .assumptions import design_assumptions
 from .cautions import STANDING, triggered_cautions
 from .design import Design, Stage
-from .errors import InfeasibleDesign, SpecError, SpecIssue
+from .errors import InfeasibleDesign, SpecError
 from .parts.bom_lines import bom_lines
+from .parts.location import library_for
 from .regulators import all_kinds, regulator
 from .spec import LoadedSpec
 from .spec.models import Requirements
@@ -28,6 +28,7 @@ from .stages import mains, margins, model, protection, rectifier, reservoir, tra
 from .stages.context import SizingContext
 from .topology import topology
 from .trace import Ledger, TraceError
+from .undefined import undefined_text
 from .verify.checks import overall_status
 from .verify.corners import analyse, corner_rows
 from .verify.evaluate import engine_checks, protection_checks
@@ -71,36 +72,6 @@ def _stage_text(reg, n_corners: int) -> list[Stage]:
     ]
 
 
-def _library(loaded: LoadedSpec):
-    ref = loaded.requirements.parts.library
-    if not ref:
-        return None
-    from .parts.library import load_library
-
-    if "://" in ref or ref.startswith("~"):
-        raise SpecError(str(loaded.path), [SpecIssue(
-            "parts.library", "must be a path relative to the requirements file, not a URL")])
-    base = loaded.path.resolve().parent
-    path = (base / ref).resolve()
-    root = _project_root(base)
-    if not path.is_relative_to(root):
-        raise SpecError(str(loaded.path), [SpecIssue(
-            "parts.library", f"{ref!r} points outside the project folder {root}; docgen reads "
-            "only files under the project")])
-    if not path.is_file():
-        raise SpecError(str(loaded.path), [SpecIssue("parts.library", f"{ref!r}: file not found")])
-    return load_library(path)
-
-
-def _project_root(folder: Path) -> Path:
-    """The enclosing git work tree, or the spec's parent folder when there is none."""
-    for candidate in (folder, *folder.parents):
-        if (candidate / ".git").exists():
-            return candidate
-    return folder.parent
-
-
-
 def _size(ctx: SizingContext, reg) -> Ledger:
     L = Ledger()
     for stage_id, fn in _stages(reg):
@@ -117,8 +88,7 @@ def _guarded(fn: Callable[[], Any]) -> Any:
             raise
         # Requirements that pass validation can still be physically contradictory in a way
         # that surfaces as a non-finite or undefined value; never report such numbers.
-        raise InfeasibleDesign(
-            f"the requirements lead to an undefined value while sizing ({exc})") from None
+        raise InfeasibleDesign(undefined_text(exc)) from None
 
 
 def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
@@ -127,7 +97,7 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     ``samples`` overrides the Monte Carlo sample count of the file (0 turns it off).
     Raises InfeasibleDesign when no design of the chosen kind meets the requirements.
     """
-    library = _library(loaded)
+    library = library_for(loaded)  # confined to the project: docgen.parts.location
     if loaded.requirements.rectifier.topology == "split":
         from .rails import run_split
 

@@ -92,6 +92,32 @@ class TraceError(RuntimeError):
     """A programming error in a stage: unknown input id, duplicate id, non-finite result."""
 
 
+class UndefinedValue(TraceError):
+    """A formula has no finite value for these requirements (a division by zero, a logarithm
+    of a negative ratio, a rating beyond every standard step). Carries what the user needs to
+    see: which quantity, why, and the inputs it was computed from."""
+
+    def __init__(self, value_id: str, title: str, why: str, inputs: dict[str, tuple[float, str]]):
+        self.value_id = value_id
+        self.title = title
+        self.why = why
+        self.inputs = inputs
+        super().__init__(f"{title} ({value_id}): {why}")
+
+
+def _why(exc: BaseException) -> str:
+    """A user's reading of an arithmetic failure (no Python-internal wording)."""
+    if isinstance(exc, ZeroDivisionError):
+        return "a division by zero"
+    if isinstance(exc, OverflowError):
+        return "a number too large to compute"
+    if type(exc).__name__ == "NoStandardValue":
+        return "beyond the largest standard rating step"
+    if isinstance(exc, ValueError) and "math domain" in str(exc):
+        return "outside the domain of its formula (a logarithm or root of a negative number)"
+    return "not a finite number"
+
+
 @dataclass
 class Ledger:
     """Collects the traced values of one design in the order they were computed."""
@@ -172,6 +198,14 @@ class Ledger:
         except NoStandardValue as exc:
             # name the quantity, the limit and what to change, not just two bare numbers
             raise InfeasibleDesign(f"{title} ({value_id}) {exc}") from None
+        except (ArithmeticError, ValueError) as exc:
+            raise UndefinedValue(value_id, title, _why(exc), {
+                vid: (self.values[vid].value, self.values[vid].unit)
+                for vid in inputs.values()}) from None
+        if not math.isfinite(result):
+            raise UndefinedValue(value_id, title, "not a finite number", {
+                vid: (self.values[vid].value, self.values[vid].unit)
+                for vid in inputs.values()})
         rhs = Template(equation.rhs)
         symbolic = rhs.substitute({p: self.values[vid].symbol for p, vid in inputs.items()})
         # A value with a unit raised to a power needs brackets: (930 mA)^2, not 930 mA^2.

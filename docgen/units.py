@@ -51,11 +51,37 @@ DIMENSIONS: dict[str, tuple[str, dict[str, float]]] = {
 _NO_PREFIX = {"%", "min", "h", "year", "y", "degC", "\u00b0C", "C", "ppm", "%/degC", "%/K",
               "%/\u00b0C", "ppm/K", "degC/W", "\u00b0C/W", "C/W", "K/W", "1/K"}
 
-_NUMBER = re.compile(r"^\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
+# ASCII digits only: Python's float() also reads Arabic-Indic or full-width digits, which a
+# requirements file should not silently accept as numbers. Only spaces and tabs around the
+# parts: a carriage return or another control character in a value is a mistake to report.
+_NUMBER = re.compile(r"^[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)"
+                     r"[ \t]*(.*?)[ \t]*\Z", re.S)
 
 
 class UnitError(ValueError):
     """A quantity could not be read; the message says what was expected."""
+
+
+def as_float(raw: int | float) -> float:
+    """A TOML number as a float; an integer too wide for a float is a UnitError, not a crash."""
+    try:
+        return float(raw)
+    except OverflowError:
+        raise UnitError("expected a number of ordinary size, got an integer of "
+                        f"{len(str(abs(raw))) if abs(raw) < 10**4000 else 'thousands of'} "
+                        "digits") from None
+
+
+def show_raw(raw: object, limit: int = 60) -> str:
+    """A raw input value for an error message: repr, cut to ``limit`` characters."""
+    if isinstance(raw, int) and not isinstance(raw, bool) and abs(raw) >= 10**30:
+        return f"an integer of {len(str(abs(raw)))} digits"
+    text = repr(raw)
+    if len(text) > limit:
+        if isinstance(raw, str):  # cut inside the quotes, so the quotes stay paired
+            return f"{raw[: limit - 20]!r}... ({len(raw)} characters)"
+        text = f"{text[: limit - 20]}... ({len(text)} characters)"
+    return text
 
 
 def _unit_scale(unit: str, dimension: str) -> float | None:
@@ -103,25 +129,25 @@ def parse_quantity(raw: object, dimension: str) -> float:
     if isinstance(raw, bool):
         raise UnitError(f"expected {expected_text(dimension)}, got a true/false value")
     if isinstance(raw, (int, float)):
-        value = float(raw)
+        value = as_float(raw)
         scale = 1.0
     elif isinstance(raw, str):
-        m = _NUMBER.match(raw)
+        m = _NUMBER.match(raw) if len(raw) <= 200 else None
         if not m:
-            raise UnitError(f"expected {expected_text(dimension)}, got {raw!r}")
+            raise UnitError(f"expected {expected_text(dimension)}, got {show_raw(raw)}")
         value = float(m.group(1))
         unit = m.group(2)
         scale = _unit_scale(unit, dimension)
         if scale is None:
             raise UnitError(
-                f"unit {unit!r} is not a {dimension.replace('_', ' ')} unit; "
+                f"unit {show_raw(unit)} is not a {dimension.replace('_', ' ')} unit; "
                 f"expected {expected_text(dimension)}"
             )
     else:
         raise UnitError(f"expected {expected_text(dimension)}, got {type(raw).__name__}")
     result = value * scale
     if not math.isfinite(result):
-        raise UnitError(f"expected a finite number, got {raw!r}")
+        raise UnitError(f"expected a finite number, got {show_raw(raw)}")
     return result
 
 
@@ -146,6 +172,8 @@ def significant(value: float, digits: int = 4) -> str:
     if value == 0 or not math.isfinite(value):
         return "0" if value == 0 else str(value)
     exponent = math.floor(math.log10(abs(value)))
+    if not -15 <= exponent <= 15:  # far outside any supply's values: short scientific form
+        return f"{value:.{digits}g}".replace("e+", "e")
     decimals = max(digits - 1 - exponent, 0)
     text = f"{value:.{decimals}f}"
     if "." in text:
@@ -164,6 +192,8 @@ def format_quantity(value: float, unit: str, digits: int = 4) -> str:
     if unit == "%":
         return f"{significant(value * 100.0, digits)} %"
     shown = display_unit(unit)
+    if value != 0 and math.isfinite(value) and not 1e-15 <= abs(value) < 1e15:
+        return f"{significant(value, digits)} {shown}".rstrip()  # no prefix fits
     if unit == "F" and 1e-6 <= abs(value) < 1.0:
         return f"{significant(value * 1e6, digits)} \u00b5F"
     if shown in _PREFIXABLE and value != 0 and math.isfinite(value):

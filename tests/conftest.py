@@ -2,9 +2,17 @@
 
 from __future__ import annotations
 
+import os
 from pathlib import Path
 
 import pytest
+from hypothesis import settings
+
+# Property tests draw the same examples on every run (CI passes or fails on the code, not on
+# luck); HYPOTHESIS_PROFILE=explore draws new ones. The wide search is bench/robustness.py.
+settings.register_profile("ci", derandomize=True, database=None, print_blob=True)
+settings.register_profile("explore", derandomize=False)
+settings.load_profile(os.environ.get("HYPOTHESIS_PROFILE", "ci"))
 
 ROOT = Path(__file__).resolve().parent.parent
 DEMO = ROOT / "specs" / "hydroponic-sensor-hub.toml"

@@ -62,7 +62,6 @@ import difflib
 import hashlib
 import math
 import re
-import sys
 from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 from pathlib import Path
@@ -71,13 +70,9 @@ from typing import Annotated, Any, ClassVar
 from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError, model_validator
 
 from ..errors import SpecError, SpecIssue
-from ..units import expected_text, format_quantity, parse_quantity
+from ..textfile import decode, parse_toml, read_bounded
+from ..units import as_float, expected_text, format_quantity, parse_quantity, show_raw
 from . import eseries
-
-if sys.version_info >= (3, 11):
-    import tomllib
-else:  # pragma: no cover
-    import tomli as tomllib
 
 __all__ = [
     "SCHEMA",
@@ -101,6 +96,7 @@ __all__ = [
 ]
 
 SCHEMA = 1
+MAX_BYTES = 2_000_000  # a library of a few thousand parts; far larger is a mistake
 
 # --------------------------------------------------------------------------------------------
 # Field readers. Each is a callable object used as a pydantic BeforeValidator; ``expects`` is
@@ -136,13 +132,15 @@ class _Quantity(_Reader):
         value = parse_quantity(raw, self.dimension)  # UnitError is a ValueError
         what = self.dimension.replace("_", " ")
         if self.sign == "positive" and not value > 0:
-            raise ValueError(f"expected a positive {what}, got {raw!r}{self.hint}")
+            raise ValueError(f"expected a positive {what}, got {show_raw(raw)}{self.hint}")
         if self.sign == "non-negative" and value < 0:
-            raise ValueError(f"expected zero or a positive {what}, got {raw!r}{self.hint}")
+            raise ValueError(f"expected zero or a positive {what}, got {show_raw(raw)}{self.hint}")
         if self.low is not None and value < self.low:
-            raise ValueError(f"expected at least {self._show(self.low)}, got {raw!r}{self.hint}")
+            raise ValueError(f"expected at least {self._show(self.low)}, "
+                             f"got {show_raw(raw)}{self.hint}")
         if self.high is not None and value > self.high:
-            raise ValueError(f"expected at most {self._show(self.high)}, got {raw!r}{self.hint}")
+            raise ValueError(f"expected at most {self._show(self.high)}, "
+                             f"got {show_raw(raw)}{self.hint}")
         return value
 
 
@@ -158,11 +156,11 @@ class _Fraction(_Reader):
         value = parse_quantity(raw, "ratio")
         if value < 0 or (self.positive and value == 0):
             raise ValueError(f"expected a {'positive' if self.positive else 'non-negative'} "
-                             f"fraction such as \"10 %\" or 0.1, got {raw!r}")
+                             f"fraction such as \"10 %\" or 0.1, got {show_raw(raw)}")
         if value > self.high:
-            hint = (f"; if {raw!r} is meant in percent, write \"{raw} %\""
+            hint = (f"; if {show_raw(raw)} is meant in percent, write \"{raw} %\""
                     if isinstance(raw, (int, float)) and not isinstance(raw, bool) else "")
-            raise ValueError(f"expected at most {self.high * 100:g} %, got {raw!r}{hint}")
+            raise ValueError(f"expected at most {self.high * 100:g} %, got {show_raw(raw)}{hint}")
         return value
 
 
@@ -176,16 +174,17 @@ class _Length(_Reader):
         if isinstance(raw, bool):
             raise ValueError(f"expected {self.expects}, got a true/false value")
         if isinstance(raw, (int, float)):
-            value = float(raw)
+            value = as_float(raw)
         elif isinstance(raw, str):
-            m = re.fullmatch(r"\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(\w*)\s*", raw)
+            m = re.fullmatch(r"[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)"
+                             r"[ \t]*([a-z]*)[ \t]*", raw)
             if not m or m.group(2) not in self._UNITS:
-                raise ValueError(f"expected {self.expects}, got {raw!r}")
+                raise ValueError(f"expected {self.expects}, got {show_raw(raw)}")
             value = float(m.group(1)) * self._UNITS[m.group(2)]
         else:
             raise ValueError(f"expected {self.expects}, got {type(raw).__name__}")
         if not (math.isfinite(value) and value > 0):
-            raise ValueError(f"expected a positive length, got {raw!r}")
+            raise ValueError(f"expected a positive length, got {show_raw(raw)}")
         return value
 
 
@@ -198,16 +197,17 @@ class _Decibel(_Reader):
         if isinstance(raw, bool):
             raise ValueError(f"expected {self.expects}, got a true/false value")
         if isinstance(raw, (int, float)):
-            value = float(raw)
+            value = as_float(raw)
         elif isinstance(raw, str):
-            m = re.fullmatch(r"\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+))\s*(dB)?\s*", raw)
+            m = re.fullmatch(r"[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+))[ \t]*(dB)?[ \t]*",
+                             raw)
             if not m:
-                raise ValueError(f"expected {self.expects}, got {raw!r}")
+                raise ValueError(f"expected {self.expects}, got {show_raw(raw)}")
             value = float(m.group(1))
         else:
             raise ValueError(f"expected {self.expects}, got {type(raw).__name__}")
         if not (math.isfinite(value) and value > 0):
-            raise ValueError(f"expected a positive number of dB, got {raw!r}")
+            raise ValueError(f"expected a positive number of dB, got {show_raw(raw)}")
         return value
 
 
@@ -218,10 +218,10 @@ class _Number(_Reader):
 
     def __call__(self, raw: Any) -> float:
         if isinstance(raw, bool) or not isinstance(raw, (int, float)):
-            raise ValueError(f"expected a plain positive number, got {raw!r}")
-        value = float(raw)
+            raise ValueError(f"expected a plain positive number, got {show_raw(raw)}")
+        value = as_float(raw)
         if not (math.isfinite(value) and value > 0):
-            raise ValueError(f"expected a plain positive number, got {raw!r}")
+            raise ValueError(f"expected a plain positive number, got {show_raw(raw)}")
         return value
 
 
@@ -230,10 +230,11 @@ class _Price(_Reader):
 
     def __call__(self, raw: Any) -> float:
         if isinstance(raw, bool) or not isinstance(raw, (int, float)):
-            raise ValueError(f"expected a price as a plain number such as 0.45, got {raw!r}")
-        value = float(raw)
+            raise ValueError("expected a price as a plain number such as 0.45, "
+                             f"got {show_raw(raw)}")
+        value = as_float(raw)
         if not (math.isfinite(value) and value >= 0):
-            raise ValueError(f"expected a price of zero or more, got {raw!r}")
+            raise ValueError(f"expected a price of zero or more, got {show_raw(raw)}")
         return value
 
 
@@ -249,7 +250,7 @@ class _Text(_Reader):
         if not isinstance(raw, str):
             raise ValueError(f"expected {self.expects}, got {_show_raw(raw)}")
         if self.part_id and (not raw or any(c.isspace() for c in raw)):
-            raise ValueError(f"expected a part id without spaces, got {raw!r}")
+            raise ValueError(f"expected a part id without spaces, got {show_raw(raw)}")
         return raw
 
 
@@ -275,7 +276,7 @@ class _Choice(_Reader):
                     return c
             close = difflib.get_close_matches(raw, self.choices, n=1, cutoff=0.5)
             hint = f"; did you mean {close[0]!r}?" if close else ""
-            raise ValueError(f"expected {self.expects}, got {raw!r}{hint}")
+            raise ValueError(f"expected {self.expects}, got {show_raw(raw)}{hint}")
         raise ValueError(f"expected {self.expects}, got {_show_raw(raw)}")
 
 
@@ -284,7 +285,7 @@ def _show_raw(raw: Any) -> str:
         return "true" if raw else "false"
     if isinstance(raw, (dict, list)):
         return "a table" if isinstance(raw, dict) else "a list"
-    return repr(raw)
+    return show_raw(raw)
 
 
 def _q(dimension: str, unit: str | None = None, **kw: Any) -> Any:
@@ -694,7 +695,7 @@ _PLURAL = {
 
 
 def _value_from_code(code: str) -> float | None:
-    m = re.fullmatch(r"(\d*)([RKMG])(\d*)", code)
+    m = re.fullmatch(r"([0-9]*)([RKMG])([0-9]*)", code)
     if not m or not (m.group(1) or m.group(3)):
         return None
     factor = {"R": 1.0, "K": 1e3, "M": 1e6, "G": 1e9}[m.group(2)]
@@ -771,13 +772,10 @@ def parse_library(data: bytes | str, path: str | Path = "<parts library>") -> Pa
     raw_bytes = data.encode("utf-8") if isinstance(data, str) else bytes(data)
     where = str(path)
     digest = hashlib.sha256(raw_bytes).hexdigest()
-    try:
-        doc = tomllib.loads(raw_bytes.decode("utf-8"))
-    except UnicodeDecodeError as exc:
-        issue = SpecIssue("", f"the file is not UTF-8 text ({exc.reason} at byte {exc.start})")
-        raise SpecError(where, [issue]) from None
-    except tomllib.TOMLDecodeError as exc:
-        raise SpecError(where, [SpecIssue("", f"not valid TOML: {exc}")]) from None
+    if len(raw_bytes) > MAX_BYTES:
+        raise SpecError(where, [SpecIssue("", f"file is {len(raw_bytes)} bytes; expected at most "
+                                              f"{MAX_BYTES}")])
+    doc = parse_toml(where, decode(where, raw_bytes))
 
     issues: list[SpecIssue] = []
 
@@ -864,9 +862,10 @@ def parse_library(data: bytes | str, path: str | Path = "<parts library>") -> Pa
 def load_library(path: str | Path) -> PartsLibrary:
     """Read and validate the parts library at ``path``. Raises SpecError listing every problem."""
     try:
-        data = Path(path).read_bytes()
-    except OSError as exc:
-        raise SpecError(str(path), [SpecIssue("", f"cannot read the parts library: "
-                                                  f"{exc.strerror or exc}")]) from None
+        data = read_bounded(Path(path), MAX_BYTES, "a parts library .toml file")
+    except SpecError as exc:
+        issues = [SpecIssue(i.location, f"cannot read the parts library: {i.message}")
+                  for i in exc.issues]
+        raise SpecError(exc.path, issues) from None
     return parse_library(data, path)
 

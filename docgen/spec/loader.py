@@ -11,14 +11,12 @@ from typing import Any
 from pydantic import BaseModel, ValidationError
 
 from ..errors import SpecError, SpecIssue
+from ..textfile import SPEC_MAX_BYTES, decode, read_bounded
+from ..textfile import parse_toml as _parse_toml
+from ..units import show_raw
 from .models import Requirements
 
-try:  # Python 3.11+
-    import tomllib
-except ModuleNotFoundError:  # pragma: no cover - Python 3.10
-    import tomli as tomllib  # type: ignore[no-redef]
-
-MAX_BYTES = 1_000_000  # a requirements file is a page of text; anything larger is a mistake
+MAX_BYTES = SPEC_MAX_BYTES
 
 
 @dataclass(frozen=True)
@@ -27,6 +25,7 @@ class LoadedSpec:
     text: str
     sha256: str
     requirements: Requirements
+    project_root: Path | None = None  # set for a temporary copy; see docgen.parts.location
 
 
 def location(loc: tuple[Any, ...]) -> str:
@@ -72,8 +71,9 @@ def _issue_from(error: dict[str, Any]) -> SpecIssue:
     if kind == "extra_forbidden":
         model = _model_at(loc)
         known = _field_names(model) if model else []
-        hint = difflib.get_close_matches(str(loc[-1]), known, n=1)
-        text = f"unknown key '{loc[-1]}'"
+        key = str(loc[-1])
+        hint = difflib.get_close_matches(key, known, n=1) if len(key) <= 100 else []
+        text = f"unknown key {show_raw(key)}"
         if hint:
             text += f"; did you mean '{hint[0]}'?"
         elif known:
@@ -86,46 +86,17 @@ def _issue_from(error: dict[str, Any]) -> SpecIssue:
         if message.startswith(prefix):
             message = message[len(prefix):]
     if kind == "literal_error":
-        message = f"{message}, got {error.get('input')!r}"
+        message = f"{message}, got {show_raw(error.get('input'))}"
     return SpecIssue(where or "(file)", message)
 
 
 def read_text(path: Path) -> str:
-    """Read a small UTF-8 text file or raise SpecError naming what is wrong with it."""
-    try:
-        size = path.stat().st_size
-    except FileNotFoundError:
-        raise SpecError(str(path), [SpecIssue("", "file not found")]) from None
-    except OSError as exc:
-        raise SpecError(str(path), [SpecIssue("", f"cannot read: {exc.strerror}")]) from None
-    if path.is_dir():
-        raise SpecError(str(path), [SpecIssue("", "is a folder, expected a .toml file")])
-    if size > MAX_BYTES:
-        raise SpecError(
-            str(path), [SpecIssue("", f"file is {size} bytes; expected at most {MAX_BYTES}")]
-        )
-    try:
-        data = path.read_bytes()
-    except OSError as exc:
-        raise SpecError(str(path), [SpecIssue("", f"cannot read: {exc.strerror}")]) from None
-    try:
-        return data.decode("utf-8")
-    except UnicodeDecodeError as exc:
-        raise SpecError(
-            str(path),
-            [SpecIssue("", f"not UTF-8 text (byte {exc.start}); expected a TOML text file")],
-        ) from None
+    """Read a small UTF-8 text file (bounded for any kind of file) or raise SpecError."""
+    return decode(path, read_bounded(path, MAX_BYTES, "a .toml file"))
 
 
 def parse_toml(path: Path, text: str) -> dict[str, Any]:
-    if "\x00" in text:
-        raise SpecError(str(path), [SpecIssue("", "binary data; expected a TOML text file")])
-    try:
-        return tomllib.loads(text)
-    except tomllib.TOMLDecodeError as exc:
-        detail = str(exc)
-        return_msg = f"not valid TOML: {detail}"
-        raise SpecError(str(path), [SpecIssue("", return_msg)]) from None
+    return _parse_toml(path, text)
 
 
 def load_requirements(path: str | Path) -> LoadedSpec:
@@ -140,7 +111,8 @@ def load_requirements(path: str | Path) -> LoadedSpec:
     if type(data.get("schema")) is not int or data["schema"] != 1:
         raise SpecError(
             str(path),
-            [SpecIssue("schema", f"unsupported version {data.get('schema')!r}; expected 1")],
+            [SpecIssue("schema", f"unsupported version {show_raw(data.get('schema'))}; "
+                                  "expected 1")],
         )
     try:
         requirements = Requirements.model_validate(data)

@@ -12,7 +12,15 @@ from typing import Annotated
 
 from pydantic import BeforeValidator, WithJsonSchema
 
-from ..units import _NO_PREFIX, DIMENSIONS, PREFIXES, UnitError, format_quantity, parse_quantity
+from ..units import (
+    _NO_PREFIX,
+    DIMENSIONS,
+    PREFIXES,
+    UnitError,
+    format_quantity,
+    parse_quantity,
+    show_raw,
+)
 
 # The number part of a quantity as the unit parser reads it (JSON Schema / ECMA-262 syntax).
 NUMBER_PATTERN = r"[-+]?(\d+(\.\d*)?|\.\d+)([eE][-+]?\d+)?"
@@ -59,15 +67,15 @@ def _quantity(dimension: str, unit: str, *, positive: bool = False, non_negative
         except UnitError as exc:
             raise ValueError(str(exc)) from None
         if positive and value <= 0:
-            raise ValueError(f"must be greater than zero, got {raw!r}")
+            raise ValueError(f"must be greater than zero, got {show_raw(raw)}")
         if non_negative and value < 0:
-            raise ValueError(f"must not be negative, got {raw!r}")
+            raise ValueError(f"must not be negative, got {show_raw(raw)}")
         if high is not None and value > high:
-            raise ValueError(f"{raw!r} is above {format_quantity(high, unit)}, the largest value "
-                             "docgen accepts here")
+            raise ValueError(f"{show_raw(raw)} is above {format_quantity(high, unit)}, the "
+                             "largest value docgen accepts here")
         if low is not None and value < low:
-            raise ValueError(f"{raw!r} is below {format_quantity(low, unit)}, the smallest value "
-                             "docgen accepts here")
+            raise ValueError(f"{show_raw(raw)} is below {format_quantity(low, unit)}, the "
+                             "smallest value docgen accepts here")
         return value
 
     return Annotated[float, BeforeValidator(read), _json_schema(dimension, unit)]

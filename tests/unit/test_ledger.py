@@ -9,6 +9,7 @@ from pathlib import Path
 import pytest
 
 from docgen import pipeline
+from docgen.parts.location import library_for
 from docgen.regulators import regulator
 from docgen.spec import load_requirements
 from docgen.stages import mains, margins, model, protection, rectifier, reservoir, transformer
@@ -49,7 +50,7 @@ def test_every_id_is_written_before_it_is_read(spec):
     loaded = load_requirements(spec)
     reg = regulator(loaded.requirements.output[0].regulator)
     ctx = SizingContext(spec=loaded.requirements, spec_path=str(spec),
-                        library=pipeline._library(loaded))
+                        library=library_for(loaded))
     L = pipeline._size(ctx, reg)
     order = {vid: k for k, vid in enumerate(L.values)}
     stage_of = {vid: v.stage for vid, v in L.values.items()}
