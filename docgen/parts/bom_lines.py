@@ -47,7 +47,7 @@ def bom_lines(ctx: SizingContext, L: Ledger, reg) -> list[PartChoice]:
     lines += reg.bom_lines(ctx, L, line, v)
     lines.append(line("F1", "fuse", f"{v('fuse.rating')} T",
                       f"fuse-link, time-lag (T), {v('fuse.rating')}, rated for "
-                      f"{v('mains.v_high')} or more, in the live lead", ("fuse.rating",)))
+                      f"{v('fuse.v_need')} or more (nominal mains), in the live lead", ("fuse.rating",)))
     if "bleeder.r" in L:
         lines.append(line("R9", "resistor", f"{v('bleeder.r')} {v('bleeder.p_rating')}",
                           f"bleeder resistor {v('bleeder.r')}, at least {v('bleeder.p_rating')}, "
