@@ -56,16 +56,7 @@ def size_protection(ctx: SizingContext, L: Ledger, i_sec_nominal: float, surge) 
     ``surge``: the CornerResult (its ``surge_i2t`` etc.), or a bare float I2t (secondary, A2s).
     """
     spec = ctx.spec
-    pr = spec.protection
-    ex = pr.model_fields_set
-    tr = spec.transformer
-    L.given("fuse.k", r"k_F", pr.fuse_factor, "", "Fuse rating factor",
-            defaulted="fuse_factor" not in ex)
-    L.calc("fuse.i_pri_rated", eq.PRIMARY_RATED, r"I_{pri,rated}", "A",
-           "Rated primary current", {"s": "transformer.va", "v": "mains.v_nom"},
-           lambda s, v: s / v)
-    L.calc("fuse.need", eq.SCALE, r"I_{F,req}", "A", "Fuse rating needed",
-           {"v": "fuse.i_pri_rated", "k": "fuse.k"}, lambda v, k: v * k)
+    _rated(L, spec)
     L.measured("engine.i_sec_nominal", eq.ENGINE, r"I_{sec,rms}", i_sec_nominal, "A",
                "Winding RMS current at nominal mains, full load (engine)",
                ("transformer.v_nl", "transformer.r_w", "reservoir.c"), "nominal mains, full load")
@@ -76,6 +67,53 @@ def size_protection(ctx: SizingContext, L: Ledger, i_sec_nominal: float, surge) 
            "Primary RMS current of the rectifier load (engine, referred)",
            {"k": "fuse.k_w", "i": "engine.i_sec_nominal", "s": "transformer.v_nl",
             "p": "mains.v_nom"}, lambda k, i, s, p: k * i * s / p)
+    _operating(L, spec, "fuse.i_pri_load")
+    _switch_on_common(L, spec)
+    if _engine_surge(L, surge):
+        _i2t_total(L, "fuse.i2t_cap")
+    choose_fuse(ctx, L)
+    _bleeder(ctx, L)
+
+
+def size_split_fuse(ctx: SizingContext, L: Ledger) -> None:
+    """The one fuse of a split supply, from both rails (their values already in ``L``, the
+    negative rail's with the prefix "neg."): both rails charge in the same half-cycles through
+    the shared primary, so their primary currents and switch-on pulses add in phase (the sums
+    below are upper bounds, exact for identical rails); the magnetising current counts once."""
+    spec = ctx.spec
+    _rated(L, spec)
+    L.calc("fuse.i_pri_load_both", eq.SUM_RMS_BOUND, r"I_{pri,load,\pm}", "A",
+           "Primary RMS current of both rails' rectifier load (upper bound)",
+           {"a": "fuse.i_pri_load", "b": "neg.fuse.i_pri_load"}, lambda a, b: a + b)
+    _operating(L, spec, "fuse.i_pri_load_both")
+    _switch_on_common(L, spec)
+    if "fuse.i2t_cap" in L and "neg.fuse.i2t_cap" in L:
+        L.calc("fuse.i2t_cap_both", eq.I2T_SUM_BOUND, r"I^2t_{pri,C,\pm}", "A2s",
+               "Charging transient I2t in the primary, both rails (upper bound)",
+               {"a": "fuse.i2t_cap", "b": "neg.fuse.i2t_cap"},
+               lambda a, b: (math.sqrt(a) + math.sqrt(b)) ** 2)
+        _i2t_total(L, "fuse.i2t_cap_both")
+    choose_fuse(ctx, L)
+
+
+# Fuse values of one rail that a split supply's fuse reads; the rest it computes again.
+SPLIT_INPUTS = ("fuse.k_w", "fuse.i_pri_load", "fuse.i2t_cap")
+
+
+def _rated(L: Ledger, spec) -> None:
+    pr = spec.protection
+    L.given("fuse.k", r"k_F", pr.fuse_factor, "", "Fuse rating factor",
+            defaulted="fuse_factor" not in pr.model_fields_set)
+    L.calc("fuse.i_pri_rated", eq.PRIMARY_RATED, r"I_{pri,rated}", "A",
+           "Rated primary current", {"s": "transformer.va", "v": "mains.v_nom"},
+           lambda s, v: s / v)
+    L.calc("fuse.need", eq.SCALE, r"I_{F,req}", "A", "Fuse rating needed",
+           {"v": "fuse.i_pri_rated", "k": "fuse.k"}, lambda v, k: v * k)
+
+
+def _operating(L: Ledger, spec, load_id: str) -> None:
+    """Operating primary current: the rectifier load's plus the magnetising current."""
+    tr = spec.transformer
     fixed_mag = tr.magnetising_current is not None
     L.given("fuse.k_mag", r"k_{mag}",
             tr.magnetising_current if fixed_mag else typical_magnetising(L["transformer.va"]),
@@ -87,11 +125,16 @@ def size_protection(ctx: SizingContext, L: Ledger, i_sec_nominal: float, surge) 
            {"v": "fuse.i_pri_rated", "k": "fuse.k_mag"}, lambda v, k: v * k)
     L.calc("fuse.i_pri", eq.SUM_RMS_BOUND, r"I_{pri,rms}", "A",
            "Primary RMS current in operation, magnetising current included (upper bound)",
-           {"a": "fuse.i_pri_load", "b": "fuse.i_mag"}, lambda a, b: a + b)
+           {"a": load_id, "b": "fuse.i_mag"}, lambda a, b: a + b)
     L.calc("fuse.i_pri_margin", eq.SCALE, r"I_{F,min}", "A",
            "Least fuse rating for the operating current", {"v": "fuse.i_pri", "k": "fuse.k"},
            lambda v, k: v * k)
-    switch_on_i2t(L, spec, surge)
+
+
+def choose_fuse(ctx: SizingContext, L: Ledger) -> None:
+    """The fixed part, else the library's smallest T fuse that meets every need, else the R10
+    step (see rate_fuse)."""
+    pr = ctx.spec.protection
     part = None
     if pr.fuse_part:
         part = ctx.fixed_part("fuse", pr.fuse_part, "protection.fuse_part")
@@ -108,12 +151,10 @@ def size_protection(ctx: SizingContext, L: Ledger, i_sec_nominal: float, surge) 
     rate_fuse(L, part)
     if part is None:
         ctx.picks["F1"] = Pick("F1", "fuse", "sized", reason=sized_reason(L))
-    _bleeder(ctx, L)
 
 
-def switch_on_i2t(L: Ledger, spec, surge, prefix: str = "") -> None:
-    """Switch-on I2t in the primary: the engine's charging transient referred to the primary,
-    plus the magnetising inrush estimate, combined as coincident pulses (an upper bound)."""
+def _switch_on_common(L: Ledger, spec) -> None:
+    """Voltage need, pulse derating and the magnetising inrush estimate."""
     tr = spec.transformer
     L.given("fuse.v_need", r"V_{F,min}", L["mains.v_nom"], "V",
             "Voltage the fuse-link must be rated for",
@@ -129,9 +170,14 @@ def switch_on_i2t(L: Ledger, spec, surge, prefix: str = "") -> None:
            "Magnetising inrush I2t, first half-cycle (estimate)",
            {"k": "fuse.k_inr", "i": "fuse.i_pri_rated", "f": "mains.freq"},
            lambda k, i, f: (k * i) ** 2 / (4.0 * f))
+
+
+def _engine_surge(L: Ledger, surge) -> bool:
+    """Record the engine's switch-on transient and refer it to the primary; False when the
+    engine gave none (the fuse check then fails visibly, see evaluate.fuse_surge_check)."""
     i2t = getattr(surge, "surge_i2t", surge)
-    if not math.isfinite(i2t):
-        return
+    if surge is None or not math.isfinite(i2t):
+        return False
     where = "switch-on at the crest, high line, C +tol"
     first = getattr(surge, "surge_first_i2t", float("nan"))
     cycles = getattr(surge, "surge_cycles", float("nan"))
@@ -139,21 +185,25 @@ def switch_on_i2t(L: Ledger, spec, surge, prefix: str = "") -> None:
         where = f"switch-on at the crest, {surge.surge_corner}"
     if math.isfinite(cycles):
         where += f"; {cycles:.1f} mains periods until charged"
+    inputs = ("transformer.v_nl", "transformer.r_w", "transformer.l_s", "reservoir.c")
     if math.isfinite(first):
         L.measured("engine.surge_i2t_first", eq.ENGINE_SWITCH_ON, r"I^2t_{sec,1}", first, "A2s",
-                   "Switch-on I2t of the first pulse alone (engine)",
-                   ("transformer.v_nl", "transformer.r_w", "transformer.l_s", "reservoir.c"),
-                   where)
+                   "Switch-on I2t of the first pulse alone (engine)", inputs, where)
     L.measured("engine.surge_i2t", eq.ENGINE_SWITCH_ON, r"I^2t_{sec}", i2t, "A2s",
-               "Switch-on I2t of the charging transient (engine)",
-               ("transformer.v_nl", "transformer.r_w", "transformer.l_s", "reservoir.c"), where)
+               "Switch-on I2t of the charging transient (engine)", inputs, where)
     L.calc("fuse.i2t_cap", eq.I2T_REFLECT, r"I^2t_{pri,C}", "A2s",
            "Charging transient I2t in the primary", {"i": "engine.surge_i2t",
                                                     "s": "transformer.v_nl", "p": "mains.v_nom"},
            lambda i, s, p: i * (s / p) ** 2)
+    return True
+
+
+def _i2t_total(L: Ledger, cap_id: str) -> None:
+    """Charging and magnetising inrush added as coincident pulses (an upper bound), and the
+    melting I2t that the pulse derating asks for."""
     L.calc("fuse.i2t_surge", eq.I2T_SUM_BOUND, r"I^2t_{pri}", "A2s",
            "Switch-on I2t in the primary, charging and magnetising inrush (upper bound)",
-           {"a": "fuse.i2t_cap", "b": "fuse.i2t_mag"},
+           {"a": cap_id, "b": "fuse.i2t_mag"},
            lambda a, b: (math.sqrt(a) + math.sqrt(b)) ** 2)
     L.calc("fuse.i2t_need", eq.I2T_NEED, r"I^2t_{F,req}", "A2s",
            "Melting I2t needed for repeated switch-on",
