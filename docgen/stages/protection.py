@@ -184,7 +184,10 @@ def _engine_surge(L: Ledger, surge) -> bool:
     if getattr(surge, "surge_corner", ""):
         where = f"switch-on at the crest, {surge.surge_corner}"
     if math.isfinite(cycles):
-        where += f"; {cycles:.1f} mains periods until charged"
+        where += (f"; charged after {cycles:.1f} mains periods"
+                  if getattr(surge, "surge_settled", False) else
+                  f"; stopped at the limit of {cycles:.1f} mains periods before the pulses "
+                  "fell to 1.1 x the steady peak")
     inputs = ("transformer.v_nl", "transformer.r_w", "transformer.l_s", "reservoir.c")
     if math.isfinite(first):
         L.measured("engine.surge_i2t_first", eq.ENGINE_SWITCH_ON, r"I^2t_{sec,1}", first, "A2s",
