@@ -132,7 +132,7 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
     from .parts.bom_lines import fuse_line
     from .stages.context import SizingContext
     from .stages.protection import size_split_fuse
-    from .verify.evaluate import fuse_surge_check
+    from .verify.evaluate import fuse_surge_check, fuse_voltage_check
 
     L = Ledger(values=_fuse_seed(a, b))
     seeded = set(L.values)
@@ -162,11 +162,12 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
                               "current (both rails)", "fuse.i_pri_margin", "fuse.rating", "max",
                               "nominal mains, full load on both rails", w, ref="F1",
                               requirement="protection.fuse_factor"),
-                   fuse_surge_check(L, w)]
+                   fuse_surge_check(L, w), *fuse_voltage_check(L, w)]
     values = _drop_rail_fuse(a.values)
     values.update({k: v for k, v in L.values.items() if k not in seeded})
     values.update({NEG + k: _prefixed(v) for k, v in _drop_rail_fuse(b.values).items()})
-    rail_only = ("check.transformer_current", "check.fuse_operating", "check.fuse_surge")
+    rail_only = ("check.transformer_current", "check.fuse_operating", "check.fuse_surge",
+                 "check.fuse_voltage")
     checks = [dataclasses.replace(c, title="(+ rail) " + c.title) for c in a.checks
               if c.id not in rail_only]
     checks.append(combined)

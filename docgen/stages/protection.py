@@ -10,6 +10,7 @@ import math
 
 from .. import equations as eq
 from .. import standards
+from ..errors import InfeasibleDesign
 from ..parts.eseries import preferred
 from ..topology import topology
 from ..trace import Ledger
@@ -232,6 +233,7 @@ def rate_fuse(L: Ledger, part) -> None:
         src = f"library part {part.id}"
         L.given("fuse.rating", r"I_N", part.current, "A", "Fuse rated current", source=src)
         L.given("fuse.i2t", r"I^2t_F", part.i2t, "A2s", "Fuse melting I2t", source=src)
+        L.given("fuse.v_rating", r"V_F", part.voltage, "V", "Fuse voltage rating", source=src)
     else:
         L.given("fuse.t_gate", r"t_{10,min}", GATE_T_MIN, "s",
                 "Least pre-arcing time at 10 I_N (time-lag T, 5 x 20 mm)",
@@ -248,6 +250,11 @@ def rate_fuse(L: Ledger, part) -> None:
         L.calc("fuse.rating_need", eq.LARGEST3, r"I_{F,req,max}", "A", "Largest of the needs",
                {"a": "fuse.need", "b": "fuse.i_pri_margin", "c": "fuse.need_i2t"},
                lambda a, b, c: max(a, b, c))
+        if L["fuse.rating_need"] > standards.FUSE_RATINGS[-1]:
+            raise InfeasibleDesign(
+                f"the primary fuse needs {L['fuse.rating_need']:.3g} A (operating current or "
+                f"switch-on I2t), above the largest miniature fuse rating "
+                f"{standards.FUSE_RATINGS[-1]:g} A; use a soft-start or a larger fuse type")
         L.calc("fuse.rating", eq.PICKED, r"I_N", "A", "Fuse rated current (R10 step, T type)",
                {"x": "fuse.rating_need"},
                lambda x: standards.next_at_or_above(x, standards.FUSE_RATINGS))

@@ -152,6 +152,15 @@ def fuse_surge_check(L: Ledger, w: float, prefix: str = "") -> Check:
                       "switch-on transient not converged", 0.0, ref="F1")
 
 
+def fuse_voltage_check(L: Ledger, w: float) -> list[Check]:
+    """A part's voltage rating against the nominal mains (a sized fuse is specified by it)."""
+    if "fuse.v_rating" not in L:
+        return []
+    return [make_check(L, "check.fuse_voltage", "Fuse voltage rating >= nominal mains voltage",
+                       "fuse.v_need", "fuse.v_rating", "max", "nominal mains", 0.0, ref="F1",
+                       requirement="protection.fuse_part")]
+
+
 def protection_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]:
     """Fuse and bleeder, sized after the engine has given the operating and surge currents."""
     w = ctx.spec.margins.warn_band
@@ -163,6 +172,7 @@ def protection_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[C
                       "fuse.i_pri_margin", "fuse.rating", "max", "nominal mains, full load", w,
                       ref="F1", requirement="protection.fuse_factor")]
     out.append(fuse_surge_check(L, w))
+    out += fuse_voltage_check(L, w)
     if "bleeder.time" in L:
         out.append(make_check(L, "check.bleeder_time", "Discharge time <= allowed time",
                               "bleeder.time", "bleeder.t", "max", "high line, no load, C +tol",

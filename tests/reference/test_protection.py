@@ -199,3 +199,16 @@ def test_sized_rating_covers_the_switch_on_need():
     below = standards.FUSE_RATINGS[standards.FUSE_RATINGS.index(i_n) - 1]
     assert 0.3 * (10 * below) ** 2 * 0.01 < L["fuse.i2t_surge"]
     assert "switch-on" in ctx.picks["F1"].reason
+
+
+def test_fixed_fuse_below_nominal_voltage_fails():
+    """A fixed 125 V fuse-link on 230 V mains fails the voltage check (common practice: rated at
+    least the nominal system voltage); a 250 V link passes."""
+    from docgen.verify.evaluate import fuse_voltage_check
+
+    lib = library(("T-125V", 1.0, 125.0, 5.0), ("T-250V", 1.0, 250.0, 5.0))
+    for part, status in (("T-125V", "fail"), ("T-250V", "pass")):
+        L = ledger()
+        sized(spec(protection_update={"fuse_part": part}), L, lib=lib)
+        (chk,) = fuse_voltage_check(L, 0.05)
+        assert chk.status == status and chk.limit == float(part[2:5])
