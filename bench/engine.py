@@ -122,6 +122,28 @@ def ten_thousand() -> None:
     )
 
 
+def switch_on_cost() -> None:
+    """CPU time of the switch-on transient (until charged) against its grid, on the circuits of
+    tests/reference/test_switch_on.py, with the steady-state peak as the settling reference."""
+    from docgen.engine import switch_on
+    from tests.reference.test_switch_on import CASES as SO_CASES
+
+    print("== switch-on transient (until charged) ==")
+    for name, params in SO_CASES.items():
+        c = Circuit(**params)
+        ref = simulate(c).i_d_peak
+        base = None
+        for steps, later in ((4000, 1000), (2000, 500), (1000, 250)):
+            t0 = time.process_time()
+            so = switch_on(c, steps_per_period=steps, later_steps_per_period=later,
+                           settle_peak=ref)
+            dt = time.process_time() - t0
+            base = base or (so.i_peak[0], so.i2t[0])
+            print(f"{name:26s} steps {steps:5d}/{later:4d}: {dt * 1e3:7.0f} ms CPU, "
+                  f"{so.pulses[0]:3.0f} pulse periods, peak {so.i_peak[0] / base[0] - 1:+.1e}, "
+                  f"I2t {so.i2t[0] / base[1] - 1:+.1e} (relative to the finest)")
+
+
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--quick", action="store_true", help="only the three fastest reference cases")
@@ -133,6 +155,7 @@ def main() -> None:
     refs = reference_vs_engine(names)
     steps_sweep(names, refs)
     ten_thousand()
+    switch_on_cost()
     print(f"benchmark took {time.perf_counter() - t0:.0f} s")
 
 

@@ -36,6 +36,19 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str]) -> list[Assu
         Assumption("assume.monte_carlo",
                    "Monte Carlo draws each tolerance independently and uniformly within its "
                    f"band ({axes}).", "common practice when the distributions are unknown"),
+        Assumption("assume.fuse",
+                   "The fuse rules check the rating against the primary current (the engine's "
+                   "rectifier current referred to the primary plus an estimated magnetising "
+                   "current) and the switch-on I2t (the engine's charging transient until the "
+                   "reservoir is full, plus an estimated magnetising inrush, added as if "
+                   "coincident) against a derated share of the melting I2t. Not covered: the "
+                   "fuse maker's pulse-derating curve (switchings against I2t share) and "
+                   "melting I2t for pulses shorter than 10 ms (without a library part the least "
+                   "I2t the IEC 60127-2 gate at 10 I_N allows is used), ambient derating of the "
+                   "fuse rating, breaking capacity against the installation's prospective "
+                   "short-circuit current, and the transformer's real magnetising current and "
+                   "inrush (measure them, or use the maker's figures; the maker's stated fuse "
+                   "takes precedence).", "common practice"),
         Assumption("assume.not_covered",
                    "Creepage and clearance distances are not computed; the safety section "
                    "lists what to check by hand.", "scope of this version"),

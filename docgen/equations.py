@@ -250,10 +250,11 @@ ENGINE = _eq(
     "the period map; checked against scipy.integrate.solve_ivp in the test suite",
 )
 ENGINE_SWITCH_ON = _eq(
-    "engine.switch_on", "Switch-on surge (numerical)",
-    r"\mathrm{first\ charging\ pulse,\ empty\ capacitor,\ closed\ at\ the\ crest}",
+    "engine.switch_on", "Switch-on transient (numerical)",
+    r"\mathrm{empty\ capacitor,\ closed\ at\ the\ crest,\ until\ charged}",
     {},
-    "docgen waveform engine (switch-on transient); worst switching instant per common practice",
+    "docgen waveform engine (switch-on transient over the pulses until the capacitor is "
+    "charged); worst switching instant per common practice",
 )
 CAP_RIPPLE_CURRENT = _eq(
     "reservoir.ripple_current_table", "Capacitor ripple current estimate",
@@ -393,8 +394,8 @@ TURNS_REFLECT = _eq("transformer.reflect_current", "Secondary current referred t
 I2T_REFLECT = _eq("transformer.reflect_i2t", "Switch-on I2t referred to the primary",
                   r"$i \cdot \left(\frac{$s}{$p}\right)^2",
                   {"i": r"I^2t_{sec}", "s": r"V_{path,NL}", "p": r"V_{nom}"},
-                  "ideal transformer current ratio (any circuits text); magnetising inrush not "
-                  "included")
+                  "ideal transformer current ratio (any circuits text); the magnetising inrush "
+                  "is added separately")
 BLEEDER_R = _eq("bleeder.resistance", "Largest bleeder for the discharge time",
                 r"\frac{$t}{$c \cdot \ln($v / $s)}",
                 {"t": "t", "c": r"C_{max}", "v": r"V_0", "s": r"V_{safe}"},
@@ -408,3 +409,35 @@ POWER_V2 = _eq("power.v2r_single", "Power in a resistor", r"\frac{$v^2}{$R}",
 RSS = _eq("sum.quadrature", "Sum in quadrature (RMS of currents in turn)",
           r"\sqrt{$a^2 + $b^2}", {"a": "a", "b": "b"},
           "RMS of two current pulse trains that do not overlap in time (definition of RMS)")
+
+# Fuse and switch-on (protection stage).
+I2T_HALF_SINE = _eq("fuse.inrush_i2t", "I2t of a half-sine pulse lasting half a mains period",
+                    r"\frac{($k \cdot $i)^2}{4 \cdot $f}",
+                    {"k": r"k_{inr}", "i": r"I_{pri,rated}", "f": "f"},
+                    "derived: integral of (I_pk sin)^2 over 1/(2f) is I_pk^2 / (4f); peak k x "
+                    "rated primary current: common practice (from memory)")
+SUM_RMS_BOUND = _eq("sum.rms_bound", "RMS of a sum of currents (upper bound)", r"$a + $b",
+                    {"a": "a", "b": "b"},
+                    "Minkowski inequality: the RMS of a sum is at most the sum of the RMS values "
+                    "(equal when the currents are in phase)")
+I2T_SUM_BOUND = _eq("sum.i2t_bound", "I2t of coincident pulses (upper bound)",
+                    r"\left(\sqrt{$a} + \sqrt{$b}\right)^2", {"a": "a", "b": "b"},
+                    "Minkowski inequality for the integral of a squared sum (equal when the "
+                    "pulses have the same shape and timing)")
+FUSE_I2T_GATE = _eq("fuse.i2t_gate", "Least melting I2t allowed by the 10 I_N gate",
+                    r"(10 \cdot $i)^2 \cdot $t", {"i": "I_N", "t": r"t_{10,min}"},
+                    "IEC 60127-2 standard sheet 3 (time-lag, low breaking capacity): pre-arcing "
+                    "time at 10 I_N at least 10 ms (from memory)")
+FUSE_RATING_FOR_I2T = _eq("fuse.rating_for_i2t", "Least rating whose gate I2t covers the need",
+                          r"\frac{1}{10} \sqrt{\frac{$x}{$t}}", {"x": r"I^2t_{req}",
+                                                                  "t": r"t_{10,min}"},
+                          "inverse of the IEC 60127-2 sheet 3 gate I2t (from memory)")
+PULSE_DERATED = _eq("fuse.pulse_derated", "Switch-on I2t a fuse may see at each switch-on",
+                    r"$k \cdot $x", {"k": r"k_{pulse}", "x": r"I^2t_F"},
+                    "common practice (from memory): at most about 20-50 % of the melting I2t per "
+                    "switch-on for tens of thousands of switchings")
+I2T_NEED = _eq("fuse.i2t_need", "Melting I2t needed for repeated switch-on", r"\frac{$x}{$k}",
+               {"x": r"I^2t_{pri}", "k": r"k_{pulse}"},
+               "common practice (from memory): pulse derating of the melting I2t")
+LARGEST3 = _eq("max.three", "Largest of three", r"\max($a, $b, $c)",
+               {"a": "a", "b": "b", "c": "c"}, DEF)

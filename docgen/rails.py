@@ -107,15 +107,39 @@ def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail) -> Des
         note = "shared by both rails: the larger half-winding voltage, the combined current"
         _shared_note(a, note)
         _shared_note(b, note)
-    return _merge(loaded, spec, a, b)
+    return _merge(loaded, spec, a, b, library)
 
 
 def _worst_corner(d: Design) -> str:
     return next(c.corner for c in d.checks if c.id == "check.transformer_current")
 
 
-def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design) -> Design:
-    L = Ledger()
+def _fuse_seed(a: Design, b: Design) -> dict:
+    """Values the shared fuse is sized from: every value of the positive rail except its own
+    fuse sizing, and the negative rail's fuse inputs (prefixed)."""
+    from .stages.protection import SPLIT_INPUTS
+
+    seed = {k: v for k, v in a.values.items()
+            if not k.startswith("fuse.") or k in SPLIT_INPUTS}
+    seed.update({NEG + k: _prefixed(v) for k, v in b.values.items() if k in SPLIT_INPUTS})
+    return seed
+
+
+def _drop_rail_fuse(values: dict) -> dict:
+    from .stages.protection import SPLIT_INPUTS
+
+    return {k: v for k, v in values.items() if not k.startswith("fuse.") or k in SPLIT_INPUTS}
+
+
+def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library=None
+           ) -> Design:
+    from .parts.bom_lines import fuse_line
+    from .stages.context import SizingContext
+    from .stages.protection import size_split_fuse
+    from .verify.evaluate import fuse_surge_check, fuse_voltage_check
+
+    L = Ledger(values=_fuse_seed(a, b))
+    seeded = set(L.values)
     L.stage = "split"
     L.given("split.i_pos", r"I_{+}", a.values["engine.transformer_current"].value, "A",
             "Half-winding RMS current from the positive rail (engine)",
@@ -133,15 +157,26 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design) -> Desi
                           "rails) <= rated current", "split.i_sec_rms", "split.i_rated", "max",
                           "each rail at its worst corner", spec.margins.warn_band,
                           ref="T1")
-    values = dict(a.values)
-    values.update(L.values)
-    values.update({NEG + k: _prefixed(v) for k, v in b.values.items()})
+    # One fuse in the shared primary, sized from both rails.
+    ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=library)
+    L.stage = "protection"
+    size_split_fuse(ctx, L)
+    w = spec.margins.warn_band
+    fuse_checks = [make_check(L, "check.fuse_operating", "Fuse rating >= k_F x operating primary "
+                              "current (both rails)", "fuse.i_pri_margin", "fuse.rating", "max",
+                              "nominal mains, full load on both rails", w, ref="F1",
+                              requirement="protection.fuse_factor"),
+                   fuse_surge_check(L, w), *fuse_voltage_check(L, w)]
+    values = _drop_rail_fuse(a.values)
+    values.update({k: v for k, v in L.values.items() if k not in seeded})
+    values.update({NEG + k: _prefixed(v) for k, v in _drop_rail_fuse(b.values).items()})
+    rail_only = ("check.transformer_current", "check.fuse_operating", "check.fuse_surge",
+                 "check.fuse_voltage")
     checks = [dataclasses.replace(c, title="(+ rail) " + c.title) for c in a.checks
-              if c.id != "check.transformer_current"]
+              if c.id not in rail_only]
     checks.append(combined)
-    checks += [_check_neg(c) for c in b.checks
-               if c.id not in ("check.transformer_current", "check.fuse_operating",
-                               "check.fuse_surge")]
+    checks += fuse_checks
+    checks += [_check_neg(c) for c in b.checks if c.id not in rail_only]
     stages = [s for s in a.stages]
     stages.insert(1, Stage("split", "Shared transformer of the split supply",
                            "Both rails draw from the same center-tapped winding: each half "
@@ -151,8 +186,9 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design) -> Desi
     # The negative rail's stages follow in full, so every input a calculation links to has
     # its place in the document.
     stages += [Stage("neg:" + s.id, "Negative rail: " + s.title, s.intro) for s in b.stages]
-    parts = [dataclasses.replace(p, description=p.description + " (positive rail)")
-             if p.ref not in ("T1", "F1") else p for p in a.parts]
+    parts = [fuse_line(ctx, L) if p.ref == "F1" else
+             dataclasses.replace(p, description=p.description + " (positive rail)")
+             if p.ref != "T1" else p for p in a.parts]
     parts += [dataclasses.replace(p, ref=REF_MAP.get(p.ref, p.ref),
                                   description=p.description + " (negative rail)",
                                   value_ids=tuple(NEG + i for i in p.value_ids))

@@ -1,7 +1,8 @@
 """Periodic steady-state waveform engine for capacitor-input rectifiers (numpy only).
 
 ``simulate`` finds the periodic steady state of many operating points at once; ``switch_on``
-gives the first charging pulse after the mains is switched on at the crest.
+integrates the charging pulses after the mains is switched on at the crest until the capacitor
+is charged (largest pulse, whole-transient I^2 t, and the first pulse's figures).
 
 Circuit model (secondary-referred, SI units)
 --------------------------------------------

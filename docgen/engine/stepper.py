@@ -97,6 +97,7 @@ class PassResult:
     i: np.ndarray | None = None  # (N+1, n) path current
     v_p: np.ndarray | None = None
     i_end: np.ndarray | None = None
+    sign_end: np.ndarray | None = None  # path EMF signs at the end (passes given sign0)
 
 
 def integrate(
@@ -108,12 +109,20 @@ def integrate(
     store: bool = True,
     sensitivity: bool = True,
     stop_after_pulse: bool = False,
+    sign0: np.ndarray | None = None,
 ) -> PassResult:
     """Integrate one pass over the per-point phase grid ``phase`` (shape (N+1, n), radians).
 
     The pass starts with capacitor voltage v_c0 and, where l_s > 0, inductor current i0 (where
     l_s = 0 the current is found from the circuit). Phase is that of the open-circuit EMF
     e = vpk * sin(phase) of the path.
+
+    ``sign0`` (full-wave passes longer than half a period, e.g. the switch-on transient): the
+    EMF is that of the conducting path, sign * vpk * sin(phase), starting with ``sign0``. While
+    the current flows the path keeps its sign (its diodes stay on past the EMF zero crossing);
+    once it is off the path that the EMF now forward-biases takes over. The other path cannot
+    conduct while one does as long as the capacitor voltage is not negative, so one path
+    variable describes both. The final signs are returned in ``PassResult.sign_end``.
     """
     nsteps = phase.shape[0] - 1
     vpk, c, esr, ind = p.vpk, p.c, p.esr, p.l_s
@@ -122,7 +131,8 @@ def integrate(
     dt = np.diff(phase, axis=0) / p.omega
 
     # Consistent start (t0): capacitor branch without history (z = esr).
-    e0 = vpk * sin[0]
+    sign = None if sign0 is None else np.asarray(sign0, dtype=float).copy()
+    e0 = vpk * sin[0] * (1.0 if sign is None else sign)
     s0 = solve_path(p, load, e0, v_c0, esr, p.r_lin)
     # Paths with an inductor carry the given current; the node then follows from the load law.
     y_l = v_c0 + esr * i0
@@ -183,11 +193,15 @@ def integrate(
         bh = bh_all[k]
         z = z_all[k]
         a = v_c + bh * i_c
+        e_new = emf[k + 1]
+        if sign is not None:
+            sign = np.where(i > 0, sign, np.where(sin[k + 1] < 0, -1.0, 1.0))
+            e_new = sign * e_new
         if any_l:
             kl = kl_all[k]
-            ep = emf[k + 1] + kl * i + v_l
+            ep = e_new + kl * i + v_l
         else:
-            ep = emf[k + 1]
+            ep = e_new
         if linear:
             s = _solve_linear(
                 p.isat, p.mvt, ep, a, z, d0_all[k], d1_all[k], g0, g1, rs_all[k], lt_all[k]
@@ -222,7 +236,7 @@ def integrate(
                 nsteps = k + 1
                 break
 
-    res = PassResult(v_c, d_vc, i_end=i)
+    res = PassResult(v_c, d_vc, i_end=i, sign_end=sign)
     if store:
         res.i, res.v_p = out_i[: nsteps + 1], out_v[: nsteps + 1]
     return res

@@ -11,6 +11,22 @@ from ..trace import Ledger
 from ..units import format_quantity as fq
 
 
+def fuse_line(ctx: SizingContext, L: Ledger) -> PartChoice:
+    """F1: the pick made by the protection stage (a split supply makes it for both rails)."""
+    pick = ctx.picks.get("F1")
+    part = pick.part if pick else None
+    rating = fq(L["fuse.rating"], "A", 3)
+    return PartChoice(
+        "F1", "fuse", f"{rating} T",
+        description=(part.description or part.id) if part is not None else
+        f"fuse-link, time-lag (T), {rating}, rated for {fq(L['fuse.v_need'], 'V', 3)} or more "
+        "(nominal mains), in the live lead",
+        part_id=part.id if part is not None else "",
+        origin=pick.origin if pick else "sized",
+        reason=pick.reason if pick else "",
+        value_ids=("fuse.rating",))
+
+
 def bom_lines(ctx: SizingContext, L: Ledger, reg) -> list[PartChoice]:
     def v(i: str) -> str:
         return fq(L[i], L.values[i].unit, 3)
@@ -45,9 +61,7 @@ def bom_lines(ctx: SizingContext, L: Ledger, reg) -> list[PartChoice]:
              ("reservoir.c", "reservoir.v_rating")),
     ]
     lines += reg.bom_lines(ctx, L, line, v)
-    lines.append(line("F1", "fuse", f"{v('fuse.rating')} T",
-                      f"fuse-link, time-lag (T), {v('fuse.rating')}, rated for "
-                      f"{v('mains.v_high')} or more, in the live lead", ("fuse.rating",)))
+    lines.append(fuse_line(ctx, L))
     if "bleeder.r" in L:
         lines.append(line("R9", "resistor", f"{v('bleeder.r')} {v('bleeder.p_rating')}",
                           f"bleeder resistor {v('bleeder.r')}, at least {v('bleeder.p_rating')}, "

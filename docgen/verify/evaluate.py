@@ -133,20 +133,46 @@ def capacitor_life(rated: float, rated_temp_c: float, temp_c: float, cap: float)
     return min(rated * 2 ** ((rated_temp_c - temp_c) / 10.0), cap)
 
 
+def fuse_surge_check(L: Ledger, w: float, prefix: str = "") -> Check:
+    """The switch-on I2t against the derated melting I2t; never left out: when the engine gave
+    no switch-on transient the check fails and says so."""
+    if prefix + "fuse.i2t_surge" in L:
+        return make_check(L, prefix + "check.fuse_surge",
+                          "Switch-on I2t <= k_pulse x fuse melting I2t", prefix + "fuse.i2t_surge",
+                          prefix + "fuse.i2t_allowed", "max", "switch-on at the crest, high line, "
+                          "C +tol, charging transient + magnetising inrush", w, ref="F1",
+                          requirement="protection.pulse_derating")
+    L.given(prefix + "fuse.i2t_unknown", r"N_{I^2t}", 1.0, "",
+            "Switch-on I2t not known (the engine's switch-on transient did not converge)",
+            source="waveform engine")
+    L.given(prefix + "fuse.i2t_unknown_allowed", r"N_{I^2t,max}", 0.0, "",
+            "Unknown switch-on I2t allowed", source="the fuse must be checked")
+    return make_check(L, prefix + "check.fuse_surge", "Switch-on I2t known and within the fuse",
+                      prefix + "fuse.i2t_unknown", prefix + "fuse.i2t_unknown_allowed", "max",
+                      "switch-on transient not converged", 0.0, ref="F1")
+
+
+def fuse_voltage_check(L: Ledger, w: float) -> list[Check]:
+    """A part's voltage rating against the nominal mains (a sized fuse is specified by it)."""
+    if "fuse.v_rating" not in L:
+        return []
+    return [make_check(L, "check.fuse_voltage", "Fuse voltage rating >= nominal mains voltage",
+                       "fuse.v_need", "fuse.v_rating", "max", "nominal mains", 0.0, ref="F1",
+                       requirement="protection.fuse_part")]
+
+
 def protection_checks(ctx: SizingContext, L: Ledger, cr: CornerResult) -> list[Check]:
     """Fuse and bleeder, sized after the engine has given the operating and surge currents."""
     w = ctx.spec.margins.warn_band
     nominal = np.array([n.startswith("nominal mains, full load") for n in cr.corners.name])
     i_sec = float(np.nanmax(np.where(nominal, cr.corner_metric("i_sec_rms"), np.nan)))
     L.stage = "protection"
-    protection.size_protection(ctx, L, i_sec, cr.surge_i2t)
+    protection.size_protection(ctx, L, i_sec, cr)
     out = [make_check(L, "check.fuse_operating", "Fuse rating >= k_F x operating primary current",
                       "fuse.i_pri_margin", "fuse.rating", "max", "nominal mains, full load", w,
                       ref="F1", requirement="protection.fuse_factor")]
-    if "fuse.i2t" in L and "fuse.i2t_surge" in L:
-        out.append(make_check(L, "check.fuse_surge", "Switch-on I2t <= fuse melting I2t",
-                              "fuse.i2t_surge", "fuse.i2t", "max", "switch-on at the crest", w,
-                              ref="F1"))
+    out.append(fuse_surge_check(L, w))
+    out += fuse_voltage_check(L, w)
     if "bleeder.time" in L:
         out.append(make_check(L, "check.bleeder_time", "Discharge time <= allowed time",
                               "bleeder.time", "bleeder.t", "max", "high line, no load, C +tol",

@@ -47,5 +47,18 @@ def test_split_supply_has_both_rails_and_one_shared_transformer(tmp_path):
         v["split.i_pos"].value ** 2 + v["split.i_neg"].value ** 2)
     assert v["transformer.va"].value == v["neg.transformer.va"].value
     assert any(c.id.startswith("neg.check.") for c in design.checks)
+    # One fuse in the shared primary, from both rails: they charge in the same half-cycles, so
+    # their referred currents and switch-on pulses add in phase (Minkowski upper bounds); the
+    # magnetising current counts once. (Before: the fuse came from the positive rail alone.)
+    pos, neg = v["fuse.i_pri_load"].value, v["neg.fuse.i_pri_load"].value
+    assert v["fuse.i_pri_load_both"].value == pytest.approx(pos + neg)
+    assert v["fuse.i_pri"].value == pytest.approx(pos + neg + v["fuse.i_mag"].value)
+    a, b = v["fuse.i2t_cap"].value, v["neg.fuse.i2t_cap"].value
+    assert v["fuse.i2t_cap_both"].value == pytest.approx((a ** 0.5 + b ** 0.5) ** 2)
+    fuse = {c.id: c for c in design.checks if c.ref == "F1"}
+    assert set(fuse) == {"check.fuse_operating", "check.fuse_surge"}
+    assert fuse["check.fuse_operating"].value == pytest.approx(
+        v["fuse.k"].value * v["fuse.i_pri"].value)
+    assert "neg.fuse.rating" not in v and refs.count("F1") == 1
     svg = (result.out_dir / "plots" / "schematic.svg").read_text()
     assert "-15 V" in svg and "+15 V" in svg
