@@ -229,7 +229,11 @@ class Reservoir(Section):
 
 
 class Zener(Section):
-    voltage: Voltage | None = q(None, "V", "Zener voltage (defaults to the output voltage).")
+    voltage: Voltage | None = q(
+        None, "V", "Zener voltage. When absent: the standard (E24, IEC 60063) value nearest the "
+        "output voltage (zener kind) or the output plus V_BE (follower) that keeps the output "
+        "window at the zener's tolerance and temperature extremes; a value written here is "
+        "used as written.")
     tolerance: Fraction = q(0.05, "%", "Zener voltage tolerance.", "common practice (+/-5 % grade)")
     power: Power | None = q(None, "W", "Fixed part: rated zener power (sized when absent).")
     knee_current: PositiveCurrent = q(
