@@ -9,8 +9,8 @@ from __future__ import annotations
 
 from .. import equations as eq
 from ..parts.eseries import preferred
-from .base import record_output
 from . import rules
+from .base import record_output
 from .three_terminal import ThreeTerminal, regulator_data, regulator_needs
 
 TITLE = "Adjustable three-terminal regulator"

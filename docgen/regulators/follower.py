@@ -18,9 +18,8 @@ from .. import standards
 from ..errors import InfeasibleDesign
 from ..parts.eseries import preferred
 from ..stages.context import Pick, SizingContext, record_fields
-from ..trace import Ledger
+from ..trace import Caution, Ledger
 from ..verify.checks import COMMON_CHECKS, OUTPUT_RIPPLE, EngineCheck
-from ..trace import Caution
 from . import rules
 from .base import Regulator, record_output, series_ripple
 from .thermal import junction_limit_check, size_heat_budget, thermal_chain

@@ -44,7 +44,7 @@ RR_WINDOW_NEED = eq.define(
     "common practice: ripple rejection falls when the input comes within about 1 V of dropout")
 RR_NEAR_DROPOUT = eq.define(
     "regulator.rr_near_dropout", "Ripple rejection taken within the window above dropout",
-    r"$r - $l", {"r": "RR", "l": r"\Delta RR"},
+    r"$r - $d", {"r": "RR", "d": r"\Delta RR"},
     "common practice: makers' rejection-versus-headroom curves fall by tens of dB near "
     "dropout (no single source; overridable)")
 ADJ_VOUT_MAX = eq.define(

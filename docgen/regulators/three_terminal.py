@@ -84,8 +84,8 @@ def regulator_data(ctx: SizingContext, L: Ledger, adjustable: bool = False):
     given("reg.rr", r"RR", "ripple_rejection", p.ripple_rejection_db if p else None, "dB",
           "Ripple rejection")
     L.calc("reg.rr_low", rules.RR_NEAR_DROPOUT, r"RR_{DO}", "dB",
-           "Ripple rejection near dropout", {"r": "reg.rr", "l": "reg.rr_loss"},
-           lambda r, l: max(r - l, 0.0))
+           "Ripple rejection near dropout", {"r": "reg.rr", "d": "reg.rr_loss"},
+           lambda r, d: max(r - d, 0.0))
     given("reg.v_in_max", r"V_{in,max}", "v_in_max",
           (p.v_in_max if p and p.v_in_max else None), "V", "Highest input voltage")
     given("reg.t_j_max", r"T_{J,max}", "t_j_max", p.t_j_max_c if p else None, "degC",

@@ -339,8 +339,11 @@ class PassTransistor(Section):
                                                "common practice for a power transistor"})
     v_be: Voltage = q(0.7, "V", "Base-emitter voltage at the full load current and 25 degC.",
                       "A. S. Sedra, K. C. Smith (0.6-0.7 V, from memory)")
-    v_be_tempco: Voltage = q(0.002, "V/K", "Fall of V_BE per kelvin of junction temperature "
-                             "(magnitude).", "common practice: about -2 mV/K")
+    v_be_tempco: float = Field(
+        default=0.002, ge=0.0, le=0.01,
+        description="Fall of V_BE per kelvin of junction temperature, as a plain number in V/K "
+        "(magnitude; 0.002 is 2 mV/K).",
+        json_schema_extra={"unit": "V/K", "default_source": "common practice: about -2 mV/K"})
     v_be_per_decade: Voltage = q(0.06, "V", "Change of V_BE per decade of emitter current.",
                                  "exponential junction law: V_T ln 10, about 60 mV at room "
                                  "temperature (A. S. Sedra, K. C. Smith, from memory)")

@@ -295,7 +295,7 @@ def test_standard_zener_voltage_skips_values_that_break_the_window():
     assert not ok and v == pytest.approx(13.0)
 
 
-# -- follower ---------------------------------------------------------------------------------------
+# -- follower ------------------------------------------------------------------------------
 
 def test_follower_zener_is_a_standard_value_and_the_output_is_shown(follower):
     v = {k: x.value for k, x in follower.values.items()}
