@@ -28,8 +28,8 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str]) -> list[Assu
         out.append(Assumption(
             "assume.zener_model",
             "The zener conducts above its knee voltage (the rated voltage at its tolerance "
-            "and temperature extremes) with its dynamic resistance; self-heating of the "
-            "junction is not modelled.",
+            "and temperature extremes, plus its self-heating at the worst-case hand "
+            "dissipation: alpha V_Z P_Z R_thJA) with its dynamic resistance.",
             "A. S. Sedra, K. C. Smith, Microelectronic Circuits (from memory)"))
     axes = ", ".join(("mains range", "capacitance", *reg.corner_axis_names, "load"))
     out += [
@@ -53,6 +53,10 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str]) -> list[Assu
                    "Creepage and clearance distances are not computed; the safety section "
                    "lists what to check by hand.", "scope of this version"),
     ]
+    if reg.not_covered:
+        out.append(Assumption("assume.not_covered.regulator",
+                              "Not covered for the " + (reg.title or reg.kind).lower() + ": "
+                              + " ".join(reg.not_covered), "scope of this version"))
     out += [Assumption(f"assume.raised.{name}", f"Raised after the engine verification: "
                        f"{reason}.", "docgen pipeline") for name, reason in raised.items()]
     return out

@@ -51,7 +51,8 @@ ZENER_DT = _eq(
     "zener.delta_t", "Largest junction temperature excursion from 25 degC",
     r"\max(|$h - 25\,^{\circ}C|,\ |$c - 25\,^{\circ}C|)",
     {"h": r"T_{A,max}", "c": r"T_{A,min}"},
-    "common practice: zener voltage is specified at 25 degC; self-heating neglected",
+    "common practice: zener voltage is specified at 25 degC; the junction's self-heating "
+    "is added separately (zener.self_heating)",
 )
 ZENER_HIGH = _eq(
     "zener.voltage_high", "Zener voltage, upper extreme",

@@ -130,6 +130,7 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
         topology=topo,
         dual_frequency=((spec.mains.frequency, spec.mains.also_frequency)
                         if spec.mains.also_frequency else None))
+    cautions += reg.cautions(L)
     return Design(
         spec_path=str(loaded.path),
         spec_text=loaded.text,

@@ -64,9 +64,9 @@ regulator = "zener"                   # shunt zener fed through a series resisto
 
 [output.zener]
 tolerance = "2 %"                     # a 2 % grade keeps a 10 % rail inside its limits
+tempco = "0.01 %/degC"                # near zero around 5 V (the default suits zeners above 6 V)
 # knee_current = "1 mA"
 # dynamic_resistance = "10 ohm"
-# tempco = "0.06 %/degC"
 ''',
     "follower": '''
 [[output]]
@@ -80,8 +80,9 @@ ripple_max = "100 mV"                 # peak to peak
 regulator = "follower"                # zener-referenced emitter follower
 headroom = "2.5 V"                    # collector-emitter drop at the ripple trough
 
-# [output.zener]                      # the reference zener
-# tolerance = "5 %"
+[output.zener]                        # the reference zener
+tolerance = "2 %"                     # a 5 % part with its tempco and self-heating leaves no
+tempco = "0.05 %/degC"                # room in a 10 % window at 12 V
 # dynamic_resistance = "10 ohm"
 
 [output.transistor]                   # the NPN pass transistor

@@ -43,6 +43,10 @@ Conventions that matter for the numbers:
 * ``zener.power`` is the rated power up to ``power_reference_temperature`` of the
   ``power_reference`` point ("lead" or "ambient"), and ``r_theta`` is the thermal resistance
   from the junction to that point, so the allowed power above it is (t_j_max - T) / r_theta.
+  A lead-rated part's lead runs above ambient: ``r_theta_la`` (lead to ambient as mounted)
+  gives the path, else the requirements file's [output.zener] lead_to_ambient is used.
+* ``regulator.dropout`` is the typical figure; ``dropout_max`` the datasheet maximum, used
+  when given (else the file's allowance is added to the typical figure).
 * A ``[[resistor]]`` table is either one part (``resistance``) or a family (``series``, ``min``,
   ``max``): a family stands for every preferred value of its IEC 60063 series from min to max.
   A member's id is the family id, "-" and the value code, e.g. "DP-RES-E24-0W25-4K7".
@@ -453,6 +457,7 @@ class Zener(_PartBase):
     power_reference_temperature_c: Temperature = Field(alias="power_reference_temperature")
     t_j_max_c: Temperature = Field(alias="t_j_max")
     r_theta: ThermalResistance  # junction to the power reference point
+    r_theta_la: ThermalResistance | None = None  # lead to ambient (lead-rated parts, as mounted)
     knee_current: Current
     test_current: Current
     dynamic_resistance: Resistance
@@ -465,6 +470,28 @@ class Zener(_PartBase):
         derating, the standard thermal relation ([CP-ZENER]), never below zero.
         """
         derated = (self.t_j_max_c - temperature_c) / self.r_theta
+        return max(0.0, min(self.power, derated))
+
+    def r_theta_ja(self, lead_to_ambient: float) -> float:
+        """Junction-to-ambient thermal resistance, K/W: r_theta itself for an ambient-rated
+        part; for a lead-rated part r_theta plus the lead-to-ambient path (the part's own
+        ``r_theta_la`` when stated, else ``lead_to_ambient``)."""
+        if self.power_reference == "ambient":
+            return self.r_theta
+        return self.r_theta + (self.r_theta_la if self.r_theta_la is not None
+                               else lead_to_ambient)
+
+    def power_at_ambient(self, ambient_c: float, lead_to_ambient: float) -> float:
+        """Allowed power, W, with the air at ``ambient_c``.
+
+        A lead-rated part's lead is not at ambient: it sits P R_thLA above it, so the junction
+        reaches T_A + P (r_theta + R_thLA) and the allowed power is
+        min(power, (t_j_max - T_A) / (r_theta + R_thLA)) (thermal-resistance chain, common
+        practice). An ambient-rated part is derated by ``power_at``.
+        """
+        if self.power_reference == "ambient":
+            return self.power_at(ambient_c)
+        derated = (self.t_j_max_c - ambient_c) / self.r_theta_ja(lead_to_ambient)
         return max(0.0, min(self.power, derated))
 
 
@@ -551,10 +578,12 @@ class Regulator(_PartBase):
     output_voltage: Voltage | None = None  # fixed parts
     reference_voltage: Voltage | None = None  # adjustable parts
     tolerance: Tolerance
-    dropout: Voltage
+    dropout: Voltage  # typical at 25 degC, as most datasheets headline it
+    dropout_max: Voltage | None = None  # datasheet maximum over temperature; preferred when given
     i_max: Current
     i_q: CurrentOrZero | None = None
     adjust_current: CurrentOrZero | None = None
+    adjust_current_max: CurrentOrZero | None = None  # datasheet maximum of the adjust-pin current
     min_load_current: CurrentOrZero | None = None
     ripple_rejection_db: Decibel = Field(alias="ripple_rejection")
     v_in_max: Voltage | None = None

@@ -40,6 +40,7 @@ def select_zener(
     power: float,
     ambient_c: float | None = None,
     lead_c: float | None = None,
+    lead_to_ambient: float | None = None,
     power_derating: float = 1.0,
     voltage_rel_tol: float = 0.005,
     tolerance_max: float | None = None,
@@ -61,6 +62,10 @@ def select_zener(
         ``lead_c``. A missing one is replaced by the other, and the reason says so: lead at
         ambient is optimistic, ambient at lead pessimistic. With neither, the rated power is
         used as it stands.
+    lead_to_ambient : float, optional
+        Lead-to-ambient thermal resistance, K/W, for lead-rated parts that do not state their
+        own ``r_theta_la``. Given with ``ambient_c`` and no ``lead_c``, a lead-rated part's
+        lead is put P R_thLA above ambient instead of at ambient (``Zener.power_at_ambient``).
     tolerance_max : float, optional
         Largest voltage tolerance accepted, fraction.
     knee_current_max : float, optional
@@ -76,7 +81,11 @@ def select_zener(
             return lead_c if lead_c is not None else ambient_c
         return ambient_c if ambient_c is not None else lead_c
 
+    lead_path = lead_c is None and ambient_c is not None and lead_to_ambient is not None
+
     def allowed(p: Zener) -> float:
+        if lead_path and p.power_reference == "lead":
+            return p.power_at_ambient(ambient_c, lead_to_ambient)
         t = temperature(p)
         return p.power if t is None else p.power_at(t)
 
@@ -87,6 +96,8 @@ def select_zener(
             parts_at.append(f"{_fmt(ambient_c, 'degC')} ambient")
         if lead_c is not None:
             parts_at.append(f"{_fmt(lead_c, 'degC')} lead")
+        elif ambient_c is not None and any_lead and lead_path:
+            parts_at.append("lead above ambient through its lead-to-ambient path")
         elif ambient_c is not None and any_lead:
             parts_at.append("lead taken at ambient (optimistic)")
         if ambient_c is None and any(p.power_reference == "ambient" for p in parts):

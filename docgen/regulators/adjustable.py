@@ -1,12 +1,15 @@
 """Adjustable three-terminal regulator: a fixed one whose output is set from its reference by the
 divider R1 (OUT to ADJ) and R2 (ADJ to ground); R1 also carries the least load the regulator
 needs. V_out = V_ref (1 + R2/R1) + I_ADJ R2 (the usual adjustable-regulator relation; common
-practice)."""
+practice). The output window takes every term at its extreme: the reference tolerance, the divider
+resistors' tolerance (R2 high with R1 low for the top) and the adjust-pin current's spread (zero
+to its largest figure)."""
 
 from __future__ import annotations
 
 from .. import equations as eq
 from ..parts.eseries import preferred
+from . import rules
 from .base import record_output
 from .three_terminal import ThreeTerminal, regulator_data, regulator_needs
 
@@ -34,6 +37,19 @@ def size_divider(L) -> None:
            {"v": "reg.v_ref", "i": "reg.r1"}, lambda v, i: v / i)
 
 
+def divider_window(L) -> None:
+    """Output extremes with the reference, divider and adjust-current spreads."""
+    ins = {"r": "reg.v_ref", "t": "reg.tol", "a": "reg.r1", "b": "reg.r2", "p": "reg.div_tol"}
+    L.calc("reg.v_out_max", rules.ADJ_VOUT_MAX, r"V_{out,max}", "V", "Highest output voltage",
+           {**ins, "i": "reg.i_adj_max"},
+           lambda r, t, a, b, p, i: r * (1 + t) * (1 + b * (1 + p) / (a * (1 - p)))
+           + i * b * (1 + p))
+    L.calc("reg.v_out_min", rules.ADJ_VOUT_MIN, r"V_{out,min}", "V", "Lowest output voltage",
+           {**ins, "i": "reg.i_adj_min"},
+           lambda r, t, a, b, p, i: r * (1 - t) * (1 + b * (1 - p) / (a * (1 + p)))
+           + i * b * (1 - p))
+
+
 class Adjustable(ThreeTerminal):
     kind = "adjustable"
     title = TITLE
@@ -45,6 +61,7 @@ class Adjustable(ThreeTerminal):
         record_output(ctx, L)
         regulator_data(ctx, L, adjustable=True)
         size_divider(L)
+        divider_window(L)
         regulator_needs(ctx, L)
 
     def describe(self, v) -> str:
@@ -52,10 +69,10 @@ class Adjustable(ThreeTerminal):
 
     def bom_lines(self, ctx, L, line, v):
         return super().bom_lines(ctx, L, line, v) + [
-            line("R2", "resistor", v("reg.r1"), f"resistor {v('reg.r1')} 1 %, OUT to ADJ",
-                 ("reg.r1",)),
-            line("R3", "resistor", v("reg.r2"), f"resistor {v('reg.r2')} 1 %, ADJ to ground",
-                 ("reg.r2",))]
+            line("R2", "resistor", v("reg.r1"),
+                 f"resistor {v('reg.r1')} +/-{v('reg.div_tol')}, OUT to ADJ", ("reg.r1",)),
+            line("R3", "resistor", v("reg.r2"),
+                 f"resistor {v('reg.r2')} +/-{v('reg.div_tol')}, ADJ to ground", ("reg.r2",))]
 
 
 KIND = Adjustable()

@@ -17,7 +17,7 @@ import numpy as np
 
 from .. import equations as eq
 from ..design import Check, PartChoice
-from ..trace import Ledger
+from ..trace import Caution, Ledger
 
 if TYPE_CHECKING:
     from ..engine import Circuit
@@ -65,6 +65,8 @@ class Regulator:
     # Names of the kind's own corner axes, for captions ("V_Z low / high" ...)
     corner_axis_names: tuple[str, ...] = ()
     engine_checks: tuple[EngineCheck, ...] = ()
+    # What the kind's model does not cover, in plain words, for the document's assumptions.
+    not_covered: tuple[str, ...] = ()
     # Ledger id prefixes the kind's two stages write (tests/unit/test_ledger.py holds kinds to
     # them): the output requirements, what the regulator draws, the reservoir ripple under its
     # load law, and its own block.
@@ -138,6 +140,10 @@ class Regulator:
         return False
 
     # -- document ----------------------------------------------------------------------------
+    def cautions(self, L: Ledger) -> list[Caution]:
+        """Cautions this design of the kind triggers (written from its figures)."""
+        return []
+
     def bom_lines(self, ctx: SizingContext, L: Ledger, line: LineFn,
                   v: Callable[[str], str]) -> list[PartChoice]:
         return []

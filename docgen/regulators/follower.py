@@ -9,6 +9,8 @@ OpenCourseWare, Spring 2007, section 10.2.3, Eqs. 10.40-10.41.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
 from .. import equations as eq
@@ -16,10 +18,11 @@ from .. import standards
 from ..errors import InfeasibleDesign
 from ..parts.eseries import preferred
 from ..stages.context import Pick, SizingContext, record_fields
-from ..trace import Ledger
+from ..trace import Caution, Ledger
 from ..verify.checks import COMMON_CHECKS, OUTPUT_HIGH, OUTPUT_LOW, OUTPUT_RIPPLE, EngineCheck
+from . import rules
 from .base import Regulator, record_output, series_ripple
-from .thermal import size_heat_budget, thermal_chain
+from .thermal import junction_limit_check, size_heat_budget, thermal_chain
 from .zener import (
     RESISTOR_POWER,
     ZENER_CURRENT,
@@ -51,20 +54,36 @@ def size_needs(ctx: SizingContext, L: Ledger) -> None:
         ("q.theta_ja", r"\theta_{JA}", "theta_ja", "K/W", "Junction-to-ambient"),
         ("q.theta_cs", r"\theta_{CS}", "theta_cs", "K/W", "Case-to-sink"),
     ))
-    L.calc("zener.v_nom", eq.SUM2, r"V_Z", "V", "Zener voltage (output plus V_BE)",
-           {"a": "output.v_nom", "b": "q.v_be"}, lambda a, b: a + b)
+    L.calc("zener.v_target", eq.SUM2, r"V_{Z,target}", "V", "Zener voltage wanted (output plus "
+           "V_BE)", {"a": "output.v_nom", "b": "q.v_be"}, lambda a, b: a + b)
+    if z.voltage is not None:
+        L.given("zener.v_nom", r"V_Z", z.voltage, "V", "Zener voltage (nominal)")
+    else:
+        from .zener_sizing import standard_voltage
+
+        standard_voltage(ctx, L, "zener.v_target", lambda v: v - q.v_be)
+        L.calc("zener.v_nom", eq.IDENT, r"V_Z", "V", "Zener voltage (nominal, standard value)",
+               {"x": "zener.v_std"}, lambda x: x)
+    L.calc("output.v_set", eq.DIFF2, r"V_{out,set}", "V",
+           "Output voltage as set by the standard zener (V_Z - V_BE)",
+           {"a": "zener.v_nom", "b": "q.v_be"}, lambda a, b: a - b)
     record_fields(L, z, (
         ("zener.tol", r"t_Z", "tolerance", "%", "Zener voltage tolerance"),
+        ("zener.tempco", r"\alpha_Z", "tempco", "%/degC", "Zener temperature coefficient"),
         ("zener.i_zk", r"I_{ZK}", "knee_current", "A", "Zener knee current"),
         ("zener.k_zk", r"k_{ZK}", "min_current_factor", "", "Minimum zener current factor"),
         ("zener.r_z", r"r_z", "dynamic_resistance", "ohm", "Zener dynamic resistance"),
     ))
     L.given("output.headroom", r"V_{hr}", out.headroom, "V", "Headroom across R1 at the trough",
             defaulted="headroom" not in out.model_fields_set)
-    L.calc("zener.v_max", eq.BOUND_HIGH, r"V_{Z,max}", "V", "Highest zener voltage",
-           {"x": "zener.v_nom", "t": "zener.tol"}, lambda x, t: x * (1 + t))
-    L.calc("zener.v_min", eq.BOUND_LOW, r"V_{Z,min}", "V", "Lowest zener voltage",
-           {"x": "zener.v_nom", "t": "zener.tol"}, lambda x, t: x * (1 - t))
+    L.calc("zener.delta_t", eq.ZENER_DT, r"\Delta T_Z", "K", "Temperature excursion from 25 degC",
+           {"h": "env.t_max", "c": "env.t_min"}, lambda h, c: max(abs(h - 25.0), abs(c - 25.0)))
+    L.calc("zener.v_max", eq.ZENER_HIGH, r"V_{Z,max}", "V", "Highest zener voltage",
+           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
+           lambda v, t, a, d: v * (1 + t) + abs(a) * v * d)
+    L.calc("zener.v_min", eq.ZENER_LOW, r"V_{Z,min}", "V", "Lowest zener voltage",
+           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
+           lambda v, t, a, d: v * (1 - t) - abs(a) * v * d)
     L.calc("zener.i_min", eq.ZENER_IZMIN, r"I_{Z,min}", "A", "Minimum zener current",
            {"k": "zener.k_zk", "i": "zener.i_zk"}, lambda k, i: k * i)
     L.calc("q.i_b_max", eq.BASE_CURRENT, r"I_{B,max}", "A", "Largest base current",
@@ -82,11 +101,43 @@ def size_needs(ctx: SizingContext, L: Ledger) -> None:
            "Input ripple the output ripple limit allows",
            {"o": "output.ripple_max", "R": "regulator.r_target", "z": "zener.r_z"},
            lambda o, R, z: o * (R + z) / z)
-    L.calc("output.v_max_est", eq.DIFF2, r"V_{out,max}", "V", "Highest output voltage",
-           {"a": "zener.v_max", "b": "q.v_be"}, lambda a, b: a - b)
-    L.calc("output.v_min_est", eq.DIFF2, r"V_{out,min}", "V", "Lowest output voltage",
-           {"a": "zener.v_min", "b": "q.v_be"}, lambda a, b: a - b)
 
+
+def output_window(ctx: SizingContext, L: Ledger) -> None:
+    """V_BE's extremes (temperature and load) and the output window with the zener's
+    self-heating; after the heat budget, whose junction target bounds the hot V_BE."""
+    q = ctx.spec.output[0].transistor
+    explicit = q.model_fields_set
+    L.given("q.v_be_tc", r"|\mathrm{d}V_{BE}/\mathrm{d}T|", q.v_be_tempco, "V/K",
+            "V_BE temperature coefficient (magnitude)", defaulted="v_be_tempco" not in explicit)
+    L.given("q.v_be_dec", r"\Delta V_{BE,dec}", q.v_be_per_decade, "V",
+            "V_BE change per decade of current", defaulted="v_be_per_decade" not in explicit)
+    L.given("q.dec_max", r"n_{dec,max}", q.load_decades_max, "",
+            "Largest number of current decades taken", defaulted="load_decades_max" not in explicit)
+    L.calc("q.decades", rules.CURRENT_DECADES, r"n_{dec}", "",
+           "Decades of emitter current from full to least load",
+           {"a": "output.i_max", "b": "output.i_min_worst", "c": "q.dec_max"},
+           lambda a, b, c: min(math.log10(a / max(b, a * 10 ** -c)), c))
+    # at the least load the transistor barely dissipates (junction near ambient); at full load
+    # the junction is hot but the current is the one V_BE is given at
+    L.calc("q.v_be_min", rules.VBE_MIN, r"V_{BE,min}", "V",
+           "Least V_BE (least load at the hottest ambient, or full load hot)",
+           {"v": "q.v_be", "k": "q.v_be_tc", "a": "env.t_max", "t": "q.t_j_target",
+            "m": "q.v_be_dec", "n": "q.decades"},
+           lambda v, k, a, t, m, n: v - max(abs(k) * max(a - 25.0, 0.0) + m * n,
+                                            abs(k) * max(t - 25.0, 0.0)))
+    L.calc("q.v_be_max", rules.VBE_MAX, r"V_{BE,max}", "V", "Largest V_BE (cold, full load)",
+           {"v": "q.v_be", "k": "q.v_be_tc", "t": "env.t_min"},
+           lambda v, k, t: v + abs(k) * max(25.0 - t, 0.0))
+    L.calc("output.v_max_est", eq.DIFF2, r"V_{out,max}", "V", "Highest output voltage",
+           {"a": "zener.v_max_hot", "b": "q.v_be_min"}, lambda a, b: a - b)
+    L.calc("output.v_min_est", eq.DIFF2, r"V_{out,min}", "V", "Lowest output voltage",
+           {"a": "zener.v_min_hot", "b": "q.v_be_max"}, lambda a, b: a - b)
+
+
+
+def q_spec(ctx: SizingContext):
+    return ctx.spec.output[0].transistor
 
 
 def size_follower(ctx: SizingContext, L: Ledger) -> None:
@@ -124,34 +175,51 @@ def size_follower(ctx: SizingContext, L: Ledger) -> None:
     L.given("margins.resistor_power", r"k_{R,P}", m.resistor_power_derating, "%",
             "Resistor power derating",
             defaulted="resistor_power_derating" not in m.model_fields_set)
-    for vid, need, steps, sym in (("zener.p_rating", "zener.p", standards.ZENER_POWERS,
-                                   r"P_{Z,rated}"),
-                                  ("zener.r_p_rating", "zener.r_p", standards.RESISTOR_POWERS,
-                                   r"P_{R1,rated}")):
-        k = "margins.zener_power" if vid.startswith("zener.p") else "margins.resistor_power"
-        L.calc(vid + "_calc", eq.DERATED_NEED, sym.replace("rated", "calc"), "W",
-               "Rating needed (hand formula)", {"x": need, "k": k}, lambda x, k: x / k)
-        fname = "zener_power" if vid == "zener.p_rating" else "resistor_power"
-        floor = ctx.floor(L, fname, vid + "_floor", sym.replace("rated", "floor"), "W",
-                          "Rating floor")
-        if floor:
-            L.calc(vid + "_needed", eq.MAX2, sym.replace("rated", "req"), "W", "Rating needed",
-                   {"a": vid + "_calc", "b": floor}, lambda a, b: max(a, b))
-        else:
-            L.calc(vid + "_needed", eq.IDENT, sym.replace("rated", "req"), "W", "Rating needed",
-                   {"x": vid + "_calc"}, lambda x: x)
-        L.calc(vid, eq.PICKED, sym, "W", "Rating (standard class)", {"x": vid + "_needed"},
-               lambda x, s=steps: standards.next_at_or_above(x, s))
-        L.calc(vid.replace("rating", "allowed"), eq.SCALE, sym.replace("rated", "allow"), "W",
-               "Dissipation allowed (derated)", {"v": vid, "k": k}, lambda v, k: v * k)
-    L.calc("q.v_ce_max", eq.DIFF2, r"V_{CE,max}", "V", "Largest collector-emitter voltage",
-           {"a": "reservoir.v_max", "b": "output.v_min_est"}, lambda a, b: a - b)
+    from .zener_sizing import self_heating, zener_rating
+
+    L.calc("zener.p_rating_needed", eq.DERATED_NEED, r"P_{Z,rated,req}", "W",
+           "Zener power rating needed", {"x": "zener.p", "k": "margins.zener_power"},
+           lambda x, k: x / k)
+    zener_rating(ctx, L, "zener.p_rating_needed")
+    L.calc("zener.p_allowed", eq.SCALE, r"P_{Z,allow}", "W", "Zener dissipation allowed (derated)",
+           {"v": "zener.p_rating_amb", "k": "margins.zener_power"}, lambda v, k: v * k)
+    self_heating(L)
+    vid, need, k, sym = "zener.r_p_rating", "zener.r_p", "margins.resistor_power", r"P_{R1,rated}"
+    L.calc(vid + "_calc", eq.DERATED_NEED, sym.replace("rated", "calc"), "W",
+           "Rating needed (hand formula)", {"x": need, "k": k}, lambda x, k: x / k)
+    floor = ctx.floor(L, "resistor_power", vid + "_floor", sym.replace("rated", "floor"), "W",
+                      "Rating floor")
+    if floor:
+        L.calc(vid + "_needed", eq.MAX2, sym.replace("rated", "req"), "W", "Rating needed",
+               {"a": vid + "_calc", "b": floor}, lambda a, b: max(a, b))
+    else:
+        L.calc(vid + "_needed", eq.IDENT, sym.replace("rated", "req"), "W", "Rating needed",
+               {"x": vid + "_calc"}, lambda x: x)
+    L.calc(vid, eq.PICKED, sym, "W", "Rating (standard class)", {"x": vid + "_needed"},
+           lambda x: standards.next_at_or_above(x, standards.RESISTOR_POWERS))
+    L.calc("zener.r_p_allowed", eq.SCALE, r"P_{R1,allow}", "W",
+           "Dissipation allowed (derated)", {"v": vid, "k": k}, lambda v, k: v * k)
+    # the heat budget first: its junction target bounds the hot V_BE of the output window
     L.calc("q.v_ce_hand", eq.DIFF2, r"V_{CE,hi}", "V", "Collector-emitter voltage at high line",
-           {"a": "reservoir.v_mean_high", "b": "output.v_min_est"}, lambda a, b: a - b)
+           {"a": "reservoir.v_mean_high", "b": "output.v_set"}, lambda a, b: a - b)
     L.calc("q.p_hand", eq.POWER_VI, r"P_Q", "W", "Pass transistor dissipation (high line, hand)",
            {"v": "q.v_ce_hand", "i": "output.i_max"}, lambda v, i: v * i)
     size_heat_budget(ctx, L, "q", "Q1", "pass transistor")
-    ctx.picks["DZ1"] = Pick("DZ1", "zener", "sized", reason="standard power class")
+    output_window(ctx, L)
+    L.calc("q.v_ce_max", eq.DIFF2, r"V_{CE,max}", "V",
+           "Largest collector-emitter voltage (high line, no load)",
+           {"a": "reservoir.v_max", "b": "output.v_min_est"}, lambda a, b: a - b)
+    if q_spec(ctx).v_ceo is not None:
+        L.given("q.v_ceo", r"V_{CEO}", q_spec(ctx).v_ceo, "V", "Transistor V_CEO rating")
+    # output shorted, no current limit: the base drive sets the current
+    L.calc("q.i_sc", rules.SHORT_CURRENT, r"I_{sc}", "A",
+           "Collector current with the output shorted (at least)",
+           {"b": "q.h_fe", "v": "reservoir.v_mean_high", "e": "q.v_be", "r": "zener.r"},
+           lambda b, v, e, r: (b + 1) * (v - e) / r)
+    L.calc("q.p_sc", rules.SHORT_POWER, r"P_{sc}", "W",
+           "Pass-transistor dissipation with the output shorted (at least)",
+           {"v": "reservoir.v_mean_high", "i": "q.i_sc"}, lambda v, i: v * i)
+    ctx.picks.setdefault("DZ1", Pick("DZ1", "zener", "sized", reason="standard power class"))
     ctx.picks["R1"] = Pick("R1", "resistor", "sized", reason="E24 value at or below the largest")
     ctx.picks.setdefault("Q1", Pick("Q1", "transistor", "sized",
                                     reason="typical power-transistor figures"))
@@ -165,6 +233,15 @@ class Follower(Regulator):
     intro = INTRO
     load_model = ("the follower as its load current plus R1's design current while the "
                   "input stays above the zener voltage")
+    not_covered = (
+        "The pass transistor's safe operating area, including secondary breakdown at high "
+        "collector-emitter voltage, is not checked: compare the operating points (highest "
+        "V_CE at full load, and the short circuit) with the maker's SOA curve.",
+        "Survival of an output short circuit is not checked (the follower has no current "
+        "limit); see the caution.",
+        "The transistor's current gain is taken at its least value; its fall at high current "
+        "and low V_CE is not modelled.",
+    )
     drawing = "follower"
     refs = ("R1", "DZ1", "Q1")
     writes = (*Regulator.writes, "zener.", "q.", "margins.zener_power",
@@ -173,8 +250,8 @@ class Follower(Regulator):
     corner_axis_names = ("zener voltage", "base resistor")
     engine_checks = (
         ZENER_CURRENT, ZENER_POWER, RESISTOR_POWER,
-        EngineCheck("check.transistor_junction", "Pass-transistor junction <= design limit",
-                    "t_j", "max", "margins.t_j_design", r"T_J", "degC", "Q1",
+        EngineCheck("check.transistor_junction", "Pass-transistor junction <= junction limit",
+                    "t_j", "max", "q.t_j_limit", r"T_J", "degC", "Q1",
                     "margins.junction_max"),
         OUTPUT_RIPPLE, OUTPUT_HIGH, OUTPUT_LOW, *COMMON_CHECKS)
 
@@ -186,7 +263,7 @@ class Follower(Regulator):
         size_follower(ctx, L)
 
     def zener_axis(self, L):
-        return [("V_Z low", L["zener.v_min"]), ("V_Z high", L["zener.v_max"])]
+        return [("V_Z low", L["zener.v_min_hot"]), ("V_Z high", L["zener.v_max_hot"])]
 
     def resistor_axis(self, L):
         return resistor_axis(L)
@@ -194,7 +271,8 @@ class Follower(Regulator):
     def sample_axes(self, L, rng, n, temp):
         vz_nom, tz = L["zener.v_nom"], L["zener.tol"]
         alpha = L["zener.tempco"] if "zener.tempco" in L else 0.0
-        v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp - 25.0)
+        rise = L["zener.p"] * L["zener.theta_ja"]  # self-heating at the hand worst case
+        v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp + rise - 25.0)
         r = L["zener.r"] * rng.uniform(1 - L["zener.r_tol"], 1 + L["zener.r_tol"], n)
         return v_z, r
 
@@ -221,15 +299,48 @@ class Follower(Regulator):
         out["p_zener"] = pts.v_z * np.maximum(i_r1_mean - i_b, 0.0)
         out["p_r_series"] = (m["v_c_mean"] - pts.v_z) ** 2 / pts.r
         v_out = pts.v_z - L["q.v_be"]
-        # the base cannot rise above the input: a starved follower's output follows the trough
-        out["v_out_min"] = np.minimum(pts.v_z, m["v_c_min"]) - L["q.v_be"]
-        out["v_out_max"] = np.minimum(pts.v_z, m["v_c_max"]) - L["q.v_be"]
+        # The base cannot rise above the input: a starved follower's output follows the trough.
+        # The corners' zener voltages include self-heating; V_BE's spread (hot and light load /
+        # cold and full load) widens the window as in the hand estimate.
+        out["v_out_min"] = np.minimum(pts.v_z, m["v_c_min"]) - L["q.v_be_max"]
+        out["v_out_max"] = np.minimum(pts.v_z, m["v_c_max"]) - L["q.v_be_min"]
         out["v_out_mean"] = np.minimum(pts.v_z, m["v_c_mean"]) - L["q.v_be"]
         out["p_q"] = (m["v_c_mean"] - v_out) * pts.load
         out["t_j"] = L["env.t_max"] + out["p_q"] * thermal_chain(L, "q")
         out["v_out_pp"] = m["ripple_pp"] * L["zener.r_z"] / (pts.r + L["zener.r_z"])
         out["p_out"] = v_out * pts.load
         return out
+
+    def hand_checks(self, ctx, L, w):
+        from ..verify.checks import make_check
+
+        # the output window is checked at every corner (engine checks output_high/low)
+        out = [
+            junction_limit_check(L, "q", "Q1", "transistor", w),
+        ]
+        if "q.v_ceo" in L:
+            out.append(make_check(L, "check.transistor_vce", "Collector-emitter voltage <= "
+                                  "V_CEO", "q.v_ce_max", "q.v_ceo", "max", "high line, no load",
+                                  w, ref="Q1", requirement="output[0].transistor.v_ceo"))
+        return out
+
+    def cautions(self, L):
+        from ..units import format_quantity as fq
+
+        budget = (L["q.t_j_limit"] - L["env.t_max"]) / thermal_chain(L, "q")
+        return [Caution(
+            "caution.follower_short", "No short-circuit protection on the follower",
+            f"The emitter follower has no current limit. With the output shorted at high line "
+            f"the base resistor drives at least {fq(L['q.i_sc'], 'A')} through Q1 "
+            f"(least gain {L['q.h_fe']:g}), so Q1 dissipates at least "
+            f"{fq(L['q.p_sc'], 'W')} at {fq(L['reservoir.v_mean_high'], 'V')} across it, "
+            f"against the {fq(budget, 'W')} its heat budget carries at "
+            f"{L['env.t_max']:g} degC, and it also sits far outside a typical safe operating "
+            "area. docgen does not check survival of a short circuit: add a current limit "
+            "(a sense resistor and a second transistor) or a fuse in the output, or accept "
+            "that a short destroys Q1.",
+            "power P = V_CE I_C with the emitter at ground; base drive after R. Roscoe, "
+            "MIT OCW 6.101 (2007) sec. 10.2.3", triggered_by="q.p_sc")]
 
     def trough_short(self, v):
         # a zener starved of current at some corner: the trough is below what R1 needs
@@ -242,13 +353,15 @@ class Follower(Regulator):
         from .three_terminal import junction_floor
 
         changed = zener_floors(ctx, L, v)
-        return junction_floor(ctx, L, v, "check.transistor_junction", "p_q") or changed
+        return junction_floor(ctx, L, v, "check.transistor_junction", "p_q",
+                              "q.t_j_limit") or changed
 
     def bom_lines(self, ctx, L, line, v):
         return zener_resistor_bom(L, line, v) + [
             line("Q1", "transistor", f"NPN {v('q.v_ce_max')}",
                  f"NPN power transistor, V_CEO at least {v('q.v_ce_max')}, I_C at least "
-                 f"{v('output.i_max')}, h_FE at least {v('q.h_fe')}", ("q.v_ce_max",))]
+                 f"{v('output.i_max')}, h_FE at least {v('q.h_fe')}, SOA covering "
+                 f"{v('q.v_ce_hand')} at {v('output.i_max')}", ("q.v_ce_max",))]
 
 
 KIND = Follower()

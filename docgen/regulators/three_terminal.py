@@ -1,6 +1,12 @@
 """Fixed three-terminal regulator: needs its dropout above the output at the ripple trough,
 passes the ripple reduced by its ripple rejection and dissipates the input-output difference
 times the load current (P = (V_in - V_out) I_out + V_in I_Q: power balance, common practice).
+
+Worst case, not typical: a dropout given as a typical figure at 25 degC gets a stated allowance
+(common practice, overridable; a datasheet maximum replaces it). Ripple rejection falls near
+dropout, so the reservoir is sized for a trough a window above the dropout floor, and the engine
+takes a reduced rejection at every corner whose trough comes inside that window (common
+practice; the rule and its figures are stated in the document).
 """
 
 from __future__ import annotations
@@ -11,8 +17,9 @@ from .. import equations as eq
 from ..stages.context import Pick, SizingContext
 from ..trace import Ledger
 from ..verify.checks import COMMON_CHECKS, OUTPUT_HIGH, OUTPUT_LOW, OUTPUT_RIPPLE, EngineCheck
+from . import rules
 from .base import Regulator, record_output, regulator_load, series_ripple
-from .thermal import size_heat_budget, thermal_chain
+from .thermal import junction_limit_check, size_heat_budget, thermal_chain
 
 TITLE = "Three-terminal regulator"
 INTRO = ("A fixed three-terminal regulator needs its dropout above the output at the ripple "
@@ -49,11 +56,36 @@ def regulator_data(ctx: SizingContext, L: Ledger, adjustable: bool = False):
             L.given(vid, sym, getattr(lin, attr), unit, title, defaulted=attr not in explicit)
 
     p = part
-    given("reg.dropout", r"V_{DO}", "dropout", p.dropout if p else None, "V", "Dropout voltage")
+    given("reg.dropout", r"V_{DO}", "dropout", p.dropout if p else None, "V",
+          "Dropout voltage (as stated)")
+    dropout_max = p.dropout_max if p is not None else lin.dropout_max
+    if dropout_max is not None:
+        if p is not None and p.dropout_max is not None:
+            L.given("reg.dropout_max", r"V_{DO,max}", dropout_max, "V",
+                    "Dropout voltage, datasheet maximum", source=src)
+        else:
+            L.given("reg.dropout_max", r"V_{DO,max}", dropout_max, "V",
+                    "Dropout voltage, datasheet maximum")
+    else:
+        L.given("reg.dropout_allowance", r"\Delta V_{DO}", lin.dropout_allowance, "V",
+                "Allowance above a typical dropout (temperature, current, spread)",
+                defaulted="dropout_allowance" not in explicit)
+        L.calc("reg.dropout_max", rules.DROPOUT_WORST, r"V_{DO,max}", "V",
+               "Dropout voltage, worst case (typical plus allowance)",
+               {"d": "reg.dropout", "a": "reg.dropout_allowance"}, lambda d, a: d + a)
+    L.given("reg.rr_window", r"V_{RR,win}", lin.rr_window, "V",
+            "Headroom above dropout below which ripple rejection is reduced",
+            defaulted="rr_window" not in explicit)
+    L.given("reg.rr_loss", r"\Delta RR", lin.rr_loss_near_dropout, "dB",
+            "Loss of ripple rejection inside the window above dropout",
+            defaulted="rr_loss_near_dropout" not in explicit)
     given("reg.tol", r"t_{reg}", "tolerance", p.tolerance if p else None, "%",
           "Output / reference tolerance")
     given("reg.rr", r"RR", "ripple_rejection", p.ripple_rejection_db if p else None, "dB",
           "Ripple rejection")
+    L.calc("reg.rr_low", rules.RR_NEAR_DROPOUT, r"RR_{DO}", "dB",
+           "Ripple rejection near dropout", {"r": "reg.rr", "d": "reg.rr_loss"},
+           lambda r, d: max(r - d, 0.0))
     given("reg.v_in_max", r"V_{in,max}", "v_in_max",
           (p.v_in_max if p and p.v_in_max else None), "V", "Highest input voltage")
     given("reg.t_j_max", r"T_{J,max}", "t_j_max", p.t_j_max_c if p else None, "degC",
@@ -72,7 +104,15 @@ def regulator_data(ctx: SizingContext, L: Ledger, adjustable: bool = False):
               "Reference voltage")
         given("reg.i_adj", r"I_{ADJ}", "adjust_current",
               p.adjust_current if p and p.adjust_current is not None else None, "A",
-              "Adjust-pin current")
+              "Adjust-pin current (typical)")
+        given("reg.i_adj_max", r"I_{ADJ,max}", "adjust_current_max",
+              p.adjust_current_max if p and p.adjust_current_max is not None else None, "A",
+              "Adjust-pin current, largest")
+        L.given("reg.i_adj_min", r"I_{ADJ,min}", 0.0, "A", "Adjust-pin current, least",
+                defaulted=True, source="common practice: taken as zero (conservative)")
+        L.given("reg.div_tol", r"t_{div}", lin.divider_tolerance, "%",
+                "Divider resistor tolerance",
+                defaulted="divider_tolerance" not in explicit)
         given("reg.i_min_load", r"I_{min}", "min_load",
               p.min_load_current if p and p.min_load_current is not None else None, "A",
               "Least load the regulator needs")
@@ -87,15 +127,22 @@ def set_output(ctx: SizingContext, L: Ledger) -> None:
            {"x": "output.v_nom"}, lambda x: x)
 
 
-def regulator_needs(ctx: SizingContext, L: Ledger) -> None:
-    """Output window, trough and input current of a three-terminal regulator."""
+def output_window(ctx: SizingContext, L: Ledger) -> None:
+    """Output window of a fixed regulator: its own tolerance."""
     L.calc("reg.v_out_max", eq.BOUND_HIGH, r"V_{out,max}", "V", "Highest output voltage",
            {"x": "reg.v_out", "t": "reg.tol"}, lambda x, t: x * (1 + t))
     L.calc("reg.v_out_min", eq.BOUND_LOW, r"V_{out,min}", "V", "Lowest output voltage",
            {"x": "reg.v_out", "t": "reg.tol"}, lambda x, t: x * (1 - t))
-    L.calc("regulator.v_in_min_needed", eq.SUM2, r"V_{in,min}", "V",
-           "Input needed at the trough (output plus dropout)",
-           {"a": "reg.v_out_max", "b": "reg.dropout"}, lambda a, b: a + b)
+
+
+def regulator_needs(ctx: SizingContext, L: Ledger) -> None:
+    """Trough and input current of a three-terminal regulator (after its output window)."""
+    L.calc("reg.v_in_floor", rules.DROPOUT_FLOOR, r"V_{in,DO}", "V",
+           "Least input that keeps regulation (output plus worst-case dropout)",
+           {"o": "reg.v_out_max", "d": "reg.dropout_max"}, lambda o, d: o + d)
+    L.calc("regulator.v_in_min_needed", rules.RR_WINDOW_NEED, r"V_{in,min}", "V",
+           "Input needed at the trough (dropout floor plus the ripple-rejection window)",
+           {"f": "reg.v_in_floor", "w": "reg.rr_window"}, lambda f, w: f + w)
     L.calc("regulator.i_in_design", eq.SUM2, r"I_{in}", "A",
            "Regulator input current at full load", {"a": "output.i_max", "b": "reg.i_q"},
            lambda a, b: a + b)
@@ -104,11 +151,11 @@ def regulator_needs(ctx: SizingContext, L: Ledger) -> None:
            {"o": "output.ripple_max", "r": "reg.rr"}, lambda o, r: o * 10 ** (r / 20))
 
 
-def junction_floor(ctx, L, v, check_id: str, metric: str) -> bool:
+def junction_floor(ctx, L, v, check_id: str, metric: str, limit_id: str) -> bool:
     """Raise the heat budget to the dissipation the engine found at the hottest corner."""
     from ..units import format_quantity as fq
 
-    if not (v.short(check_id, "margins.t_j_design", "max") and v.has_metric(metric)):
+    if not (v.short(check_id, limit_id, "max") and v.has_metric(metric)):
         return False
     p = v.corner_max(metric)
     return ctx.floors.raise_to(
@@ -147,22 +194,30 @@ class ThreeTerminal(Regulator):
     intro = INTRO
     load_model = ("the regulator as its load current plus its quiescent current while the "
                   "input stays above output plus dropout")
+    not_covered = (
+        "The regulator's line and load regulation, its transient response and its internal "
+        "current limit and thermal shutdown are the maker's; docgen does not model them.",
+        "Ripple rejection is one figure at the ripple frequency, reduced by a stated amount "
+        "inside a window above dropout (common practice); its fall with frequency and the "
+        "ripple's harmonics are not modelled.",
+    )
     drawing = "three-terminal"
     refs = ("U1",)
     corner_axis_names = ("output setpoint",)
     writes = (*Regulator.writes, "reg.", "margins.t_j_design")
     heat_sink = ("reg", "HS1")
     engine_checks = (
-        EngineCheck("check.dropout", "Capacitor trough >= output plus dropout", "v_c_min", "min",
-                    "regulator.v_in_min_needed", r"V_{C,min}", "V", "U1", ""),
-        EngineCheck("check.regulator_junction", "Regulator junction <= design limit", "t_j",
-                    "max", "margins.t_j_design", r"T_J", "degC", "U1", "margins.junction_max"),
+        EngineCheck("check.dropout", "Capacitor trough >= output plus worst-case dropout",
+                    "v_c_min", "min", "reg.v_in_floor", r"V_{C,min}", "V", "U1", ""),
+        EngineCheck("check.regulator_junction", "Regulator junction <= junction limit", "t_j",
+                    "max", "reg.t_j_limit", r"T_J", "degC", "U1", "margins.junction_max"),
         OUTPUT_RIPPLE, OUTPUT_HIGH, OUTPUT_LOW, *COMMON_CHECKS)
 
     def needs(self, ctx, L):
         record_output(ctx, L)
         regulator_data(ctx, L)
         self.set_output(ctx, L)
+        output_window(ctx, L)
         regulator_needs(ctx, L)
 
     def set_output(self, ctx, L):
@@ -184,27 +239,32 @@ class ThreeTerminal(Regulator):
         return [("V_out low", L["reg.v_out_min"]), ("V_out high", L["reg.v_out_max"])]
 
     def sample_axes(self, L, rng, n, temp):
-        t = L["reg.tol"]
-        return L["reg.v_out"] * rng.uniform(1 - t, 1 + t, n), np.ones(n)
+        # uniform over the output window (tolerance, and for an adjustable regulator the
+        # divider and adjust-pin spread)
+        return rng.uniform(L["reg.v_out_min"], L["reg.v_out_max"], n), np.ones(n)
 
     def circuit(self, L, pts, common):
+        # the engine's regulator drops out below its setpoint plus the typical dropout; the
+        # check holds the trough to the worst-case figure
         return regulator_load(L, common, pts, L["reg.i_q"], pts.v_z + L["reg.dropout"])
 
     def output_wave(self, L, wave, load, v_z, r):
         # the setpoint with the input ripple reduced by the rejection, never above the input
-        # less the dropout
+        # less the worst-case dropout
         rr = 10 ** (-L["reg.rr"] / 20)
         v_c = wave["v_c"]
-        return np.minimum(v_z + (v_c - v_c.mean()) * rr, v_c - L["reg.dropout"])
+        return np.minimum(v_z + (v_c - v_c.mean()) * rr, v_c - L["reg.dropout_max"])
 
     def derived_metrics(self, L, pts, m):
-        rr = 10 ** (-L["reg.rr"] / 20)
+        near = m["v_c_min"] < L["reg.v_in_floor"] + L["reg.rr_window"]
+        rr_db = np.where(near, L["reg.rr_low"], L["reg.rr"])
         v_set = pts.v_z
-        # Below output plus dropout the regulator passes its input less the dropout.
-        v_out_min = np.minimum(v_set, m["v_c_min"] - L["reg.dropout"])
-        v_out_max = np.minimum(v_set, m["v_c_max"] - L["reg.dropout"])
+        # Below its setpoint plus the worst-case dropout the regulator passes its input less
+        # that dropout.
+        v_out_min = np.minimum(v_set, m["v_c_min"] - L["reg.dropout_max"])
+        v_out_max = np.minimum(v_set, m["v_c_max"] - L["reg.dropout_max"])
         p_reg = (m["v_c_mean"] - v_set) * pts.load + m["v_c_mean"] * L["reg.i_q"]
-        return {"v_out_pp": m["ripple_pp"] * rr, "p_reg": p_reg,
+        return {"v_out_pp": m["ripple_pp"] * 10 ** (-rr_db / 20), "p_reg": p_reg,
                 "v_out_min": v_out_min, "v_out_max": v_out_max,
                 "v_out_mean": (v_out_min + v_out_max) / 2,
                 "t_j": L["env.t_max"] + p_reg * thermal_chain(L, "reg"),
@@ -214,6 +274,7 @@ class ThreeTerminal(Regulator):
         from ..verify.checks import make_check
 
         return [
+            junction_limit_check(L, "reg", "U1", "regulator", w),
             make_check(L, "check.regulator_input", "Highest input voltage <= regulator rating",
                        "reservoir.v_max", "reg.v_in_max", "max", "high line, no load", w,
                        ref="U1"),
@@ -223,7 +284,7 @@ class ThreeTerminal(Regulator):
         return v.short("check.dropout", "regulator.v_in_min_needed", "min")
 
     def raise_part_floors(self, ctx, L, v):
-        changed = junction_floor(ctx, L, v, "check.regulator_junction", "p_reg")
+        changed = junction_floor(ctx, L, v, "check.regulator_junction", "p_reg", "reg.t_j_limit")
         return input_rating_floor(ctx, L, v) or changed
 
     def describe(self, v) -> str:
@@ -232,8 +293,8 @@ class ThreeTerminal(Regulator):
     def bom_lines(self, ctx, L, line, v):
         return [line("U1", "regulator", v("reg.v_out"),
                      f"{self.describe(v)}, at least {v('output.i_max')}, dropout at most "
-                     f"{v('reg.dropout')}, input rating at least {v('reservoir.v_max')}",
-                     ("reg.v_out", "reg.dropout"))]
+                     f"{v('reg.dropout_max')}, input rating at least {v('reservoir.v_max')}",
+                     ("reg.v_out", "reg.dropout_max"))]
 
 
 KIND = ThreeTerminal()

@@ -85,6 +85,13 @@ class Zener(Regulator):
     needs_title = zener_sizing.NEEDS_TITLE
     needs_intro = zener_sizing.NEEDS_INTRO
     load_model = "the zener as a knee voltage plus dynamic resistance behind its series resistor"
+    not_covered = (
+        "The zener's self-heating is taken at its worst-case hand dissipation for every corner "
+        "(conservative); its thermal time constant and the surge on switch-on are not "
+        "modelled.",
+        "The zener's tolerance and temperature coefficient are the file's or the part's; the "
+        "coefficient's change with current near 5 V is not modelled.",
+    )
     drawing = "zener"
     refs = ("R1", "DZ1")
     writes = (*Regulator.writes, "zener.", "margins.zener_power", "margins.resistor_power")
@@ -108,7 +115,9 @@ class Zener(Regulator):
         zener_sizing.size_zener(ctx, L)
 
     def zener_axis(self, L):
-        return [("V_Z low", L["zener.v_knee_min"]), ("V_Z high", L["zener.v_knee_max"])]
+        # knee voltages at the extremes, self-heating included
+        k = L["zener.r_z"] * L["zener.i_zt"]
+        return [("V_Z low", L["zener.v_min_hot"] - k), ("V_Z high", L["zener.v_max_hot"] - k)]
 
     def resistor_axis(self, L):
         return resistor_axis(L)
@@ -116,7 +125,8 @@ class Zener(Regulator):
     def sample_axes(self, L, rng, n, temp):
         vz_nom, tz = L["zener.v_nom"], L["zener.tol"]
         alpha = L["zener.tempco"] if "zener.tempco" in L else 0.0
-        v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp - 25.0)
+        rise = L["zener.p"] * L["zener.theta_ja"]  # self-heating at the hand worst case
+        v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp + rise - 25.0)
         v_z = v_z - L["zener.r_z"] * L["zener.i_zt"]
         r = L["zener.r"] * rng.uniform(1 - L["zener.r_tol"], 1 + L["zener.r_tol"], n)
         return v_z, r

@@ -13,9 +13,10 @@ import math
 from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
-from ..parts.eseries import preferred
+from ..parts.eseries import is_preferred, preferred
 from ..stages.context import Pick, SizingContext, record_fields, require
 from ..trace import Ledger
+from . import rules
 from .base import record_output
 
 TITLE = "Zener shunt regulator"
@@ -49,6 +50,7 @@ def _zener_part(ctx: SizingContext, L: Ledger, vz: float):
     power = max(ctx.floors.zener_power * spec.margins.zener_power_derating, 1e-6)
     sel = select_zener(ctx.library.zeners, voltage=vz, power=power,
                        ambient_c=spec.environment.ambient_max,
+                       lead_to_ambient=z.lead_to_ambient,
                        power_derating=spec.margins.zener_power_derating)
     part = require(sel, f"{vz:g} V zener diode")
     ctx.picks["DZ1"] = Pick("DZ1", "zener", "library", part, sel.reason, sel.generic)
@@ -65,7 +67,11 @@ def size_needs(ctx: SizingContext, L: Ledger) -> None:
     L.given("output.headroom", r"V_{hr}", out.headroom, "V",
             "Headroom across the series resistor at the trough",
             defaulted="headroom" not in explicit_out)
-    vz = z.voltage if z.voltage is not None else out.voltage
+    if z.voltage is None and not z.part:
+        standard_voltage(ctx, L, "output.v_nom", lambda v: v)
+        vz = L["zener.v_std"]
+    else:
+        vz = z.voltage if z.voltage is not None else out.voltage
     part = _zener_part(ctx, L, vz)
     if part is not None:
         src = f"library part {part.id}"
@@ -80,9 +86,13 @@ def size_needs(ctx: SizingContext, L: Ledger) -> None:
         L.given("zener.i_zt", r"I_{ZT}", part.test_current, "A", "Zener test current",
                 source=src)
     else:
-        L.given("zener.v_nom", r"V_Z", vz, "V", "Zener voltage (nominal)",
-                defaulted=z.voltage is None,
-                source="" if z.voltage else "equal to the output voltage")
+        if z.voltage is None:
+            L.calc("zener.v_nom", eq.IDENT, r"V_Z", "V",
+                   "Zener voltage (nominal, standard value)", {"x": "zener.v_std"}, lambda x: x)
+        else:
+            L.given("zener.v_nom", r"V_Z", vz, "V", "Zener voltage (nominal)",
+                    source="" if is_preferred(vz, "E24") else
+                    "as written in the file; not an E24 value, check that it can be bought")
         record_fields(L, z, (
             ("zener.tol", r"t_Z", "tolerance", "%", "Zener voltage tolerance"),
             ("zener.tempco", r"\alpha_Z", "tempco", "%/degC", "Zener temperature coefficient"),
@@ -238,22 +248,7 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
     L.calc("zener.r_p_rating_needed", eq.DERATED_NEED, r"P_{R,rated,req}", "W",
            "Resistor power rating needed", {"x": "zener.r_p", "k": "margins.resistor_power"},
            lambda x, k: x / k)
-    zpick = ctx.picks.get("DZ1")
-    if zpick is not None and zpick.part is not None:
-        part = zpick.part
-        L.given("zener.p_rating", r"P_{Z,rated}", part.power_at(spec.environment.ambient_max),
-                "W", f"Zener power allowed at {spec.environment.ambient_max:g} degC "
-                f"({part.power_reference} reference)", source=f"library part {part.id}")
-    elif out.zener.power is not None:
-        L.given("zener.p_rating", r"P_{Z,rated}", out.zener.power, "W", "Zener power rating (fixed)")
-        ctx.picks["DZ1"] = Pick("DZ1", "zener", "fixed", reason="power rating given in the file")
-    else:
-        _pick(L, "zener.p_rating", r"P_{Z,rated}", "Zener power rating (standard class)",
-              _with_floor(ctx, L, "zener_power", "zener.p_rating_needed", "zener.p_floor",
-                          r"P_{Z,floor}", "Zener rating floor"),
-              standards.ZENER_POWERS, "zener")
-        ctx.picks["DZ1"] = Pick("DZ1", "zener", "sized",
-                               reason="standard power class at or above the derated need")
+    zener_rating(ctx, L, "zener.p_rating_needed")
     rpick = ctx.picks.get("R1")
     if rpick is not None and rpick.part is not None:
         L.given("zener.r_p_rating", r"P_{R,rated}", rpick.part.power, "W",
@@ -271,7 +266,8 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
                                reason="E24 value at or below the largest allowed; "
                                "standard power class")
     L.calc("zener.p_allowed", eq.SCALE, r"P_{Z,allow}", "W", "Zener dissipation allowed (derated)",
-           {"v": "zener.p_rating", "k": "margins.zener_power"}, lambda v, k: v * k)
+           {"v": "zener.p_rating_amb", "k": "margins.zener_power"}, lambda v, k: v * k)
+    self_heating(L)
     L.calc("zener.r_p_allowed", eq.SCALE, r"P_{R,allow}", "W",
            "Resistor dissipation allowed (derated)",
            {"v": "zener.r_p_rating", "k": "margins.resistor_power"}, lambda v, k: v * k)
@@ -317,9 +313,104 @@ def _pick(L: Ledger, value_id: str, symbol: str, title: str, need_id: str,
         standards.next_at_or_above(L[need_id], steps)
     except standards.NoStandardValue:
         raise InfeasibleDesign(
-            f"the {what} must dissipate so much that it needs a {L[need_id]:.1f} W rating, "
-            f"above the largest standard class ({steps[-1]:g} W); a series-pass regulator "
-            "suits this load better"
+            f"{title} ({value_id}): the {what} must dissipate so much that it needs a "
+            f"{L[need_id]:.1f} W rating, above the largest standard class ({steps[-1]:g} W); "
+            "to fix it: a series-pass regulator (regulator = \"follower\" or "
+            "\"three-terminal\") suits this load better"
         ) from None
     L.calc(value_id, eq.PICKED, symbol, "W", title, {"x": need_id},
            lambda x: standards.next_at_or_above(x, steps))
+
+
+def standard_voltage(ctx: SizingContext, L: Ledger, target_id: str, to_output) -> None:
+    """``zener.v_std``: the E24 zener voltage nearest the target (``target_id``) whose output
+    (``to_output(v_z)``) stays inside the output window at the zener's tolerance and temperature
+    extremes; the nearest E24 value when none does (the output checks then say so)."""
+    out = ctx.spec.output[0]
+    z = out.zener
+    env = ctx.spec.environment
+    d_t = max(abs(env.ambient_max - 25.0), abs(env.ambient_min - 25.0))
+    hi, lo = out.voltage * (1 + out.tolerance), out.voltage * (1 - out.tolerance)
+
+    def fits(v: float) -> bool:
+        swing = v * z.tolerance + abs(z.tempco) * v * d_t
+        return to_output(v + swing) <= hi and to_output(v - swing) >= lo
+
+    L.calc("zener.v_std", rules.ZENER_STANDARD, r"V_{Z,std}", "V",
+           "Standard (E24) zener voltage nearest the target that keeps the output window",
+           {"x": target_id}, lambda x: rules.standard_zener_voltage(x, fits)[0])
+
+
+def zener_rating(ctx: SizingContext, L: Ledger, need_id: str) -> None:
+    """Rated power (``zener.p_rating``), junction-to-ambient thermal resistance
+    (``zener.theta_ja``) and the power allowed at the hottest ambient (``zener.p_rating_amb``):
+    a library part's from its own rating point (a lead-rated part's lead sits above ambient),
+    a part without library data rated at 25 degC in free air."""
+    spec = ctx.spec
+    z = spec.output[0].zener
+    t_a = spec.environment.ambient_max
+    zpick = ctx.picks.get("DZ1")
+    if zpick is not None and zpick.part is not None:
+        part = zpick.part
+        src = f"library part {part.id}"
+        L.given("zener.p_rating", r"P_{Z,rated}", part.power, "W",
+                f"Zener power rating (up to {part.power_reference_temperature_c:g} degC "
+                f"{part.power_reference})", source=src)
+        lead_note = ("" if part.power_reference == "ambient" else
+                     f", lead {'as stated' if part.r_theta_la is not None else 'to ambient per '}"
+                     f"{'' if part.r_theta_la is not None else 'output.zener.lead_to_ambient'}")
+        L.given("zener.theta_ja", r"R_{\theta JA}", part.r_theta_ja(z.lead_to_ambient), "K/W",
+                "Zener junction-to-ambient thermal resistance", source=src + lead_note)
+        L.given("zener.p_rating_amb", r"P_{Z,amb}",
+                part.power_at_ambient(t_a, z.lead_to_ambient), "W",
+                f"Zener power allowed at {t_a:g} degC ambient ({part.power_reference} rating"
+                + (", lead above ambient" if part.power_reference == "lead" else "") + ")",
+                source=src)
+        return
+    L.given("zener.t_j_max", r"T_{J,max}", z.t_j_max, "degC", "Zener junction limit",
+            defaulted="t_j_max" not in z.model_fields_set)
+    if z.power is not None:
+        L.given("zener.p_rating", r"P_{Z,rated}", z.power, "W", "Zener power rating (fixed)")
+        ctx.picks["DZ1"] = Pick("DZ1", "zener", "fixed", reason="power rating given in the file")
+    else:
+        need = _with_floor(ctx, L, "zener_power", need_id, "zener.p_floor", r"P_{Z,floor}",
+                           "Zener rating floor")
+        if z.theta_ja is None:
+            L.calc("zener.p_need_25", rules.ZENER_NEED_AT_25, r"P_{Z,25,req}", "W",
+                   "Zener rating needed at 25 degC (derated to the hottest ambient)",
+                   {"x": need, "j": "zener.t_j_max", "t": "env.t_max"},
+                   lambda x, j, t: x * max(1.0, (j - 25.0) / (j - t)) if j > t else math.inf)
+            need = "zener.p_need_25"
+        _pick(L, "zener.p_rating", r"P_{Z,rated}", "Zener power rating (standard class)", need,
+              standards.ZENER_POWERS, "zener")
+        ctx.picks["DZ1"] = Pick("DZ1", "zener", "sized",
+                               reason="standard power class at or above the derated need")
+    if z.theta_ja is not None:
+        L.given("zener.theta_ja", r"R_{\theta JA}", z.theta_ja, "K/W",
+                "Zener junction-to-ambient thermal resistance")
+    else:
+        L.calc("zener.theta_ja", rules.ZENER_THETA_GENERIC, r"R_{\theta JA}", "K/W",
+               "Zener junction-to-ambient thermal resistance (rated at 25 degC free air)",
+               {"j": "zener.t_j_max", "p": "zener.p_rating"}, lambda j, p: (j - 25.0) / p)
+    L.calc("zener.p_rating_amb", rules.ZENER_P_AMBIENT, r"P_{Z,amb}", "W",
+           "Zener power allowed at the hottest ambient",
+           {"p": "zener.p_rating", "j": "zener.t_j_max", "t": "env.t_max", "r": "zener.theta_ja"},
+           lambda p, j, t, r: max(0.0, min(p, (j - t) / r)))
+
+
+def self_heating(L: Ledger) -> None:
+    """The zener's own dissipation heats its junction above ambient: its voltage moves by
+    alpha V_Z P_Z R_thJA (common practice), up for a positive coefficient, down for a
+    negative one; the extremes and knee voltages of the output window include it."""
+    L.calc("zener.dv_self", rules.ZENER_SELF_HEAT, r"\Delta V_{Z,self}", "V",
+           "Zener voltage shift from self-heating at its worst-case dissipation",
+           {"a": "zener.tempco", "v": "zener.v_nom", "p": "zener.p", "r": "zener.theta_ja"},
+           lambda a, v, p, r: abs(a) * v * p * r)
+    L.calc("zener.v_max_hot", rules.ZENER_HIGH_SH, r"V_{Z,max,hot}", "V",
+           "Highest zener voltage with self-heating",
+           {"v": "zener.v_max", "s": "zener.dv_self", "a": "zener.tempco"},
+           lambda v, s, a: v + (s if a > 0 else 0.0))
+    L.calc("zener.v_min_hot", rules.ZENER_LOW_SH, r"V_{Z,min,hot}", "V",
+           "Lowest zener voltage with self-heating",
+           {"v": "zener.v_min", "s": "zener.dv_self", "a": "zener.tempco"},
+           lambda v, s, a: v - (s if a < 0 else 0.0))

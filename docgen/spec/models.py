@@ -31,7 +31,11 @@ from .quantities import (
     Temperature,
     ThermalResistance,
     Voltage,
+    _quantity,
 )
+
+# a voltage that may be zero (an allowance or a window)
+NonNegVoltage = _quantity("voltage", "V", non_negative=True, high=1000.0)
 
 SCHEMA_VERSION = 1
 
@@ -241,7 +245,11 @@ class Reservoir(Section):
 
 
 class Zener(Section):
-    voltage: Voltage | None = q(None, "V", "Zener voltage (defaults to the output voltage).")
+    voltage: Voltage | None = q(
+        None, "V", "Zener voltage. When absent: the standard (E24, IEC 60063) value nearest the "
+        "output voltage (zener kind) or the output plus V_BE (follower) that keeps the output "
+        "window at the zener's tolerance and temperature extremes; a value written here is "
+        "used as written.")
     tolerance: Fraction = q(0.05, "%", "Zener voltage tolerance.", "common practice (+/-5 % grade)")
     power: Power | None = q(None, "W", "Fixed part: rated zener power (sized when absent).")
     knee_current: PositiveCurrent = q(
@@ -265,6 +273,19 @@ class Zener(Section):
         0.0006, "%/degC", "Temperature coefficient of the zener voltage.",
         "common practice for zeners above about 6 V",
     )
+    t_j_max: Temperature = q(175.0, "degC", "Maker's junction limit of a zener without a library "
+                             "part.", "common practice for small glass and plastic zeners")
+    theta_ja: ThermalResistance | None = q(
+        None, "K/W", "Junction-to-ambient thermal resistance of a zener without a library part, "
+        "for its derating and self-heating (when absent: (t_j_max - 25 degC) / rated power).",
+        "common practice: a zener's rated power is its free-air figure at 25 degC",
+    )
+    lead_to_ambient: ThermalResistance = q(
+        90.0, "K/W", "Lead-to-ambient thermal resistance of a lead-rated library zener as "
+        "mounted (used when the part does not state r_theta_la).",
+        "common practice: a 1 W axial zener with R_thJL about 80 K/W is about 170 K/W junction to "
+        "ambient on a board",
+    )
     part: str = Field(default="", max_length=80,
                       description="Library part id of a fixed zener (needs [parts]).")
 
@@ -272,8 +293,25 @@ class Zener(Section):
 class LinearRegulator(Section):
     """Three-terminal regulator data (fixed or adjustable); typical figures by default."""
 
-    dropout: Voltage = q(2.0, "V", "Least input-output difference that keeps regulation.",
-                         "common practice: about 2 V for a fixed three-terminal regulator")
+    dropout: Voltage = q(2.0, "V", "Least input-output difference that keeps regulation, typical "
+                         "at 25 degC.",
+                         "common practice: about 2 V typical for a fixed three-terminal regulator")
+    dropout_max: Voltage | None = q(
+        None, "V", "Datasheet maximum dropout over temperature and current; when given it is the "
+        "worst case, else dropout plus dropout_allowance.")
+    dropout_allowance: NonNegVoltage = q(
+        0.5, "V", "Allowance added to a typical dropout for the worst case (temperature, "
+        "current, part spread).", "common practice: about 0.5 V above the typical figure")
+    rr_window: NonNegVoltage = q(
+        1.0, "V", "Headroom above the worst-case dropout inside which the ripple rejection is "
+        "taken reduced; the reservoir is sized for a trough this far above dropout.",
+        "common practice: rejection falls within about 1 V of dropout")
+    rr_loss_near_dropout: float = Field(
+        default=20.0, ge=0.0, le=120.0,
+        description="Ripple rejection lost inside rr_window, dB.",
+        json_schema_extra={"unit": "dB", "default_source": "common practice: makers' curves "
+                           "fall by tens of dB near dropout"},
+    )
     tolerance: Fraction = q(0.04, "%", "Output (fixed) or reference (adjustable) tolerance.",
                             "common practice: +/-4 % standard grade")
     quiescent_current: Current = q(0.006, "A", "Ground-pin current (fixed) drawn from the input.",
@@ -288,8 +326,12 @@ class LinearRegulator(Section):
                           "common practice for 5-15 V fixed types")
     reference: Voltage = q(1.25, "V", "Reference voltage of an adjustable regulator.",
                            "common practice")
-    adjust_current: Current = q(50e-6, "A", "Adjust-pin current of an adjustable regulator.",
-                                "common practice")
+    adjust_current: Current = q(50e-6, "A", "Adjust-pin current of an adjustable regulator "
+                                "(typical; sets R2).", "common practice")
+    adjust_current_max: Current = q(100e-6, "A", "Largest adjust-pin current (output window).",
+                                    "common practice: about twice the typical figure")
+    divider_tolerance: PositiveFraction = q(0.01, "%", "Tolerance of the adjustable regulator's "
+                                            "divider resistors.", "common practice: 1 % film")
     min_load: Current = q(0.005, "A", "Least load an adjustable regulator needs, taken by the "
                           "divider.", "common practice")
     t_j_max: Temperature = q(125.0, "degC", "Highest junction temperature allowed by the maker.",
@@ -311,8 +353,24 @@ class PassTransistor(Section):
                             description="Least current gain at the load current.",
                             json_schema_extra={"unit": "", "default_source":
                                                "common practice for a power transistor"})
-    v_be: Voltage = q(0.7, "V", "Base-emitter voltage at the load current.",
+    v_be: Voltage = q(0.7, "V", "Base-emitter voltage at the full load current and 25 degC.",
                       "A. S. Sedra, K. C. Smith (0.6-0.7 V, from memory)")
+    v_be_tempco: float = Field(
+        default=0.002, ge=0.0, le=0.01,
+        description="Fall of V_BE per kelvin of junction temperature, as a plain number in V/K "
+        "(magnitude; 0.002 is 2 mV/K).",
+        json_schema_extra={"unit": "V/K", "default_source": "common practice: about -2 mV/K"})
+    v_be_per_decade: Voltage = q(0.06, "V", "Change of V_BE per decade of emitter current.",
+                                 "exponential junction law: V_T ln 10, about 60 mV at room "
+                                 "temperature (A. S. Sedra, K. C. Smith, from memory)")
+    load_decades_max: float = Field(
+        default=3.0, ge=0.0, le=9.0,
+        description="Decades of emitter current taken between full load and a disconnected "
+        "load (the V_BE change is bounded by this).",
+        json_schema_extra={"unit": "", "default_source": "common practice: leakage and bias "
+                           "keep some emitter current; fit a minimum load for a tighter bound"})
+    v_ceo: Voltage | None = q(None, "V", "Transistor V_CEO rating; checked against the highest "
+                              "collector-emitter voltage when given.")
     t_j_max: Temperature = q(150.0, "degC", "Highest junction temperature.", "common practice")
     theta_jc: ThermalResistance = q(3.0, "K/W", "Junction-to-case thermal resistance.",
                                    "common practice: TO-220 power transistor")

@@ -1,5 +1,6 @@
-"""Every demo spec in specs/ builds into a document whose checks do not fail, and each
-topology and regulator kind appears among them (one end-to-end build per kind)."""
+"""Every demo spec in specs/ builds into a document whose checks do not fail (or fail only for
+the stated reason), and each topology and regulator kind appears among them (one end-to-end
+build per kind)."""
 
 from __future__ import annotations
 
@@ -14,13 +15,19 @@ from ..conftest import ROOT
 
 SPECS = sorted((ROOT / "specs").glob("*.toml"))
 
+# Demo designs that fail, and the checks they fail for (none: the 12 V 1 A follower uses a 2 %
+# zener, because a 5 % part with its temperature coefficient, its self-heating at 1.2 W and
+# V_BE's fall when hot cannot stay inside a 10 % window at 12 V).
+EXPECTED_FAILS: dict[str, set[str]] = {}
+
 
 @pytest.mark.parametrize("spec", SPECS, ids=[s.stem for s in SPECS])
 def test_demo_spec_builds_without_failing_checks(spec, tmp_path):
     result = build_one(spec, tmp_path, pdf=False)
-    assert result.status in ("pass", "warn"), result.reason
+    expected = EXPECTED_FAILS.get(spec.stem, set())
+    assert result.status in (("fail",) if expected else ("pass", "warn")), result.reason
     data = json.loads((result.out_dir / "results.json").read_text())
-    assert not [c["id"] for c in data["checks"] if c["status"] == "fail"]
+    assert {c["id"] for c in data["checks"] if c["status"] == "fail"} == expected
     html = (result.out_dir / "report.html").read_text()
     assert "DEMO DATA" in html  # every demo spec is marked as invented
     assert (result.out_dir / "plots" / "schematic.svg").exists()

@@ -302,12 +302,13 @@ def test_bom_cells_cannot_run_as_spreadsheet_formulas(tmp_path):
     import io
 
     from docgen.build import build_one
-    from docgen.render.bom import neutralise
+    from docgen.render.bom import _cell, neutralise
 
     assert neutralise("=HYPERLINK(1)") == "'=HYPERLINK(1)"
     assert neutralise("@SUM(A1)") == "'@SUM(A1)"
     assert neutralise("+1+2") == "'+1+2"
-    assert neutralise("-12.5 %") == "-12.5 %"  # a negative margin stays a number
+    assert neutralise("-1+2") == "'-1+2"
+    assert _cell(-12.5) == "-12.5"  # a negative margin is written as a number, not text
     lib = (ROOT / "specs" / "parts" / "demo-parts.toml").read_text()
     lib = lib.replace('id = "', 'id = "=X')
     (tmp_path / "parts.toml").write_text(lib)
