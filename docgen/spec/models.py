@@ -31,6 +31,7 @@ from .quantities import (
     Temperature,
     ThermalResistance,
     Voltage,
+    VoltageTempco,
     _quantity,
 )
 
@@ -306,7 +307,7 @@ class LinearRegulator(Section):
         1.0, "V", "Headroom above the worst-case dropout inside which the ripple rejection is "
         "taken reduced; the reservoir is sized for a trough this far above dropout.",
         "common practice: rejection falls within about 1 V of dropout")
-    rr_loss_near_dropout: float = Field(
+    rr_loss_near_dropout: Decibels = Field(
         default=20.0, ge=0.0, le=120.0,
         description="Ripple rejection lost inside rr_window, dB.",
         json_schema_extra={"unit": "dB", "default_source": "common practice: makers' curves "
@@ -355,7 +356,7 @@ class PassTransistor(Section):
                                                "common practice for a power transistor"})
     v_be: Voltage = q(0.7, "V", "Base-emitter voltage at the full load current and 25 degC.",
                       "A. S. Sedra, K. C. Smith (0.6-0.7 V, from memory)")
-    v_be_tempco: float = Field(
+    v_be_tempco: VoltageTempco = Field(
         default=0.002, ge=0.0, le=0.01,
         description="Fall of V_BE per kelvin of junction temperature, as a plain number in V/K "
         "(magnitude; 0.002 is 2 mV/K).",

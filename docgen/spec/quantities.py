@@ -96,6 +96,7 @@ Temperature = _quantity("temperature", "degC", low=-100.0, high=300.0)
 Fraction = _quantity("ratio", "%", non_negative=True, high=10.0)
 PositiveFraction = _quantity("ratio", "%", positive=True, high=10.0)
 Tempco = _quantity("tempco", "%/degC", low=-0.01, high=0.01)
+VoltageTempco = _quantity("voltage_tempco", "V/K", non_negative=True, high=0.01)
 ThermalResistance = _quantity("thermal_resistance", "K/W", positive=True,
                                              high=1e4)
 

@@ -321,31 +321,104 @@ class Point:
             out["v_out_pp"] = out["v_out_max"] - out["v_out_min"]
         return out
 
-    def switch_on(self) -> dict[str, float]:
-        """First charging pulse after closing at the EMF crest with the capacitor empty:
-        peak current and its I^2 t. A bridge's first path conducts alone; for a center tap the
-        other half winding is assumed not to join in before the pulse ends."""
-        t0 = self.period / 4
+    def switch_on(self, settle_peak: float | None = None, max_cycles: float = 10.0,
+                  settle_ratio: float = 1.1, settle_i2t: float = 1e-4) -> dict[str, float]:
+        """The switch-on transient: closing at the EMF crest with the capacitor empty, integrated
+        pulse period by pulse period until the capacitor is charged, by the stop rule the project
+        documents for its switch-on (docgen/engine/inrush.py module notes): a pulse period after
+        the first counts as settled when its peak stays below ``settle_ratio`` x the steady-state
+        repetitive peak ``settle_peak`` (here the independent steady state's) or it adds less
+        than ``settle_i2t`` of the I^2 t so far, with no current flowing at its end; at most
+        ``max_cycles`` mains periods. Pulse periods: the first from the crest to the next EMF
+        zero crossing (half-wave: the negative crest), then half periods (half-wave: periods).
 
-        def rhs(t, y):
+        Event-driven as ``run_period``: an off mode and an on mode per conducting path (the
+        path's EMF sign s sin(wt) holds across window ends, so a pulse still flowing at a
+        window's end continues into the next); I^2 t is an extra state. For a center tap the
+        other half winding is assumed not to join in while one conducts.
+
+        Returns the largest pulse peak and the I^2 t of the whole transient, the first pulse's
+        peak and I^2 t, the windows integrated and whether the stop rule was met."""
+        t_p = self.period
+        t0 = t_p / 4
+        first_end = t_p / 2 if self.full_wave else 0.75 * t_p
+        half = t_p / 2 if self.full_wave else t_p
+        n_win = 1 + max(0, math.ceil((max_cycles * t_p - (first_end - t0)) / half - 1e-9))
+        signs = (1.0, -1.0) if self.full_wave else (1.0,)
+
+        def rhs(t, y, sign):
             i = max(y[1], 0.0)
             v = self.node(y[0], i)
-            di = (self.emf(t, 1.0) - self.r_path * i - self.junction(i) - v) / self.l_s
+            di = (self.emf(t, sign) - self.r_path * i - self.junction(i) - v) / self.l_s
             return [(i - self.load_current(v)) / self.c, di, i * i]
 
-        def ended(t, y):
+        def turn_off(t, y, sign):
             return y[1] - I_OFF
 
-        ended.terminal, ended.direction = True, -1.0
-        sol = solve_ivp(rhs, (t0, t0 + self.period), [0.0, 0.0, 0.0], method="LSODA",
-                        rtol=RTOL, atol=1e-12, events=ended, dense_output=True,
-                        first_step=self.period * 1e-9)
-        if sol.status != 1:
-            raise RuntimeError("the first pulse did not end within a period")
-        ts = np.linspace(sol.t[0], sol.t[-1], 20 * SAMPLES)
-        cur = sol.sol(ts)[1]
-        k = int(np.argmax(cur))
-        best = minimize_scalar(lambda tt: -sol.sol(tt)[1], bounds=(ts[max(k - 1, 0)],
-                               ts[min(k + 1, len(ts) - 1)]), method="bounded",
-                               options={"xatol": 1e-14})
-        return {"i_peak": max(float(cur[k]), -float(best.fun)), "i2t": float(sol.y[2, -1])}
+        turn_off.terminal, turn_off.direction = True, -1.0
+        # path: sign of the conducting path, None when off; at the crest the empty capacitor
+        # puts the first path into conduction at once
+        v_c, i_on, path = 0.0, 0.0, 1.0
+        total = peak = first_peak = first_i2t = 0.0
+        first_open, started, settled = True, False, False
+        windows = 0
+        t = t0
+        for w in range(n_win):
+            a, b = (t0, first_end) if w == 0 else (first_end + (w - 1) * half,
+                                                 first_end + w * half)
+            w_i2t = w_pk = 0.0
+            t = a
+            while t < b * (1 - 1e-13):
+                if path is None:
+                    evs = []
+                    for s in signs:
+                        def on(tt, yy, s=s):
+                            return self.emf(tt, s) - self.node(yy[0], 0.0)
+
+                        on.terminal, on.direction = True, 1.0
+                        evs.append(on)
+                    off = solve_ivp(self._off_rhs, (t, b), [v_c], method="DOP853", rtol=RTOL,
+                                    atol=1e-12, events=evs, max_step=t_p / 64)
+                    if off.status < 0:
+                        raise RuntimeError(off.message)
+                    t, v_c = float(off.t[-1]), float(off.y[0, -1])
+                    if off.status != 1:
+                        break
+                    path = signs[next(k for k, te in enumerate(off.t_events) if len(te))]
+                    i_on = 0.0
+                    continue
+                sol = solve_ivp(rhs, (t, b), [v_c, i_on, 0.0], method="LSODA", args=(path,),
+                                rtol=ON_RTOL, atol=[1e-12, 1e-12, 1e-15], events=turn_off,
+                                dense_output=True, first_step=t_p * 1e-9)
+                if sol.status < 0:
+                    raise RuntimeError(sol.message)
+                ts = np.linspace(sol.t[0], sol.t[-1], 4 * SAMPLES)
+                cur = sol.sol(ts)[1]
+                k = int(np.argmax(cur))
+                best = minimize_scalar(lambda tt, sol=sol: -sol.sol(tt)[1],
+                                       bounds=(ts[max(k - 1, 0)], ts[min(k + 1, len(ts) - 1)]),
+                                       method="bounded", options={"xatol": 1e-14})
+                pk = max(float(cur[k]), -float(best.fun))
+                seg_i2t = float(sol.y[2, -1])
+                w_pk, w_i2t = max(w_pk, pk), w_i2t + seg_i2t
+                if first_open:
+                    first_peak, first_i2t = max(first_peak, pk), first_i2t + seg_i2t
+                started = True
+                t, v_c, i_on = float(sol.t[-1]), float(sol.y[0, -1]), float(sol.y[1, -1])
+                if sol.status == 1:  # the pulse has ended
+                    path = None
+                    first_open = False
+            total += w_i2t
+            peak = max(peak, w_pk)
+            windows += 1
+            if w > 0 and path is None:
+                quiet = w_i2t < settle_i2t * total
+                if settle_peak is not None:
+                    quiet = quiet or w_pk < settle_ratio * settle_peak
+                if quiet:
+                    settled = True
+                    break
+        if not started:
+            raise RuntimeError("no charging pulse")
+        return {"i_peak": peak, "i2t": total, "first_peak": first_peak, "first_i2t": first_i2t,
+                "windows": windows, "settled": settled}
