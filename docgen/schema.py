@@ -88,14 +88,16 @@ def _obj(props: dict[str, Any], required: list[str] | None = None, **more: Any) 
 
 def results_schema() -> dict[str, Any]:
     counts = _obj({k: {"type": "integer", "minimum": 0} for k in ("pass", "warn", "fail")})
-    value = _obj({"value": _NUM, "unit": _STR, "symbol": _STR, "title": _STR,
+    value = _obj({"value": _NUM, "unit": _STR, "display_unit": _STR, "symbol": _STR,
+                  "title": _STR,
                   "equation": _STR, "inputs": {"type": "array", "items": _STR},
                   "stage": _STR, "source": _STR})
     equation = _obj({"title": _STR, "rhs": _STR,
                      "params": {"type": "object", "additionalProperties": _STR},
                      "source": _STR, "note": _STR})
     check = _obj({"id": _STR, "title": _STR, "value": _NUM, "limit": _NUM, "unit": _STR,
-                  "sense": {"enum": ["max", "min"]}, "margin": _NUM,
+                  "display_unit": _STR, "sense": {"enum": ["max", "min"]}, "margin": _NUM,
+                  "margin_unit": _STR,
                   "status": {"enum": ["pass", "warn", "fail"]}, "corner": _STR,
                   "value_id": _STR, "limit_id": _STR, "ref": _STR, "requirement": _STR})
     part = _obj({"ref": _STR, "kind": _STR, "value_text": _STR, "description": _STR,
@@ -126,7 +128,8 @@ def results_schema() -> dict[str, Any]:
         "$schema": DRAFT, "$id": BASE_ID + "results.schema.json",
         "title": "docgen results.json",
         "description": "The machine-readable twin of the report. Numbers are SI (temperatures "
-        "in degC, ratios as fractions); values are keyed by stable ids that the report and "
+        "in degC, ratios as fractions with unit \"1\", times in s); \"unit\" names the unit of "
+        "the stored number and \"display_unit\" the one the report shows; values are keyed by stable ids that the report and "
         "the checks cite. When the design is infeasible only status, infeasible_reason, "
         "spec_path and spec_sha256 are written.",
         "type": "object",

@@ -352,6 +352,10 @@ class Point:
             di = (self.emf(t, sign) - self.r_path * i - self.junction(i) - v) / self.l_s
             return [(i - self.load_current(v)) / self.c, di, i * i]
 
+        def jac(t, y, sign):
+            j = self._on_jac(t, y[:2], sign)
+            return [[*j[0], 0.0], [*j[1], 0.0], [0.0, 2.0 * max(y[1], 0.0), 0.0]]
+
         def turn_off(t, y, sign):
             return y[1] - I_OFF
 
@@ -387,9 +391,9 @@ class Point:
                     path = signs[next(k for k, te in enumerate(off.t_events) if len(te))]
                     i_on = 0.0
                     continue
-                sol = solve_ivp(rhs, (t, b), [v_c, i_on, 0.0], method="LSODA", args=(path,),
-                                rtol=ON_RTOL, atol=[1e-12, 1e-12, 1e-15], events=turn_off,
-                                dense_output=True, first_step=t_p * 1e-9)
+                sol = self._switch_on_pulse(rhs, jac, (t, b), [v_c, i_on, 0.0], path,
+                                            turn_off, first_step=t_p * (1e-9 if w == 0
+                                                                        else 1e-7))
                 if sol.status < 0:
                     raise RuntimeError(sol.message)
                 ts = np.linspace(sol.t[0], sol.t[-1], 4 * SAMPLES)
@@ -422,3 +426,20 @@ class Point:
             raise RuntimeError("no charging pulse")
         return {"i_peak": peak, "i2t": total, "first_peak": first_peak, "first_i2t": first_i2t,
                 "windows": windows, "settled": settled}
+
+    def _switch_on_pulse(self, rhs, jac, span, y0, sign, event, first_step):
+        """One on-mode stretch of the switch-on: LSODA, Radau when LSODA stalls (as _on_solve)."""
+        calls = [0]
+
+        def counted(t, y, s):
+            calls[0] += 1
+            if calls[0] > ON_CALLS:
+                raise _Stalled
+            return rhs(t, y, s)
+
+        kw = dict(args=(sign,), jac=jac, rtol=ON_RTOL, atol=1e-12, events=event,
+                  dense_output=True, first_step=first_step)
+        try:
+            return solve_ivp(counted, span, y0, method="LSODA", **kw)
+        except _Stalled:
+            return solve_ivp(rhs, span, y0, method="Radau", **kw)

@@ -46,6 +46,8 @@ def test_results_json_round_trip():
     assert data["counts"] == {"pass": 1, "warn": 1, "fail": 0}  # counted by hand
     assert data["values"]["reservoir.c"]["value"] == 2200e-6  # SI, farads
     assert data["values"]["reservoir.c"]["unit"] == "F"
+    # a ratio is stored as a fraction and says so; the report shows it in percent
+    assert data["checks"][1]["margin_unit"] == "1"
     assert [c["id"] for c in data["checks"]] == ["check.cap_ripple_current", "check.output_low"]
     assert data["checks"][1]["margin"] == pytest.approx(0.01 / 8.19)
     assert [b["ref"] for b in data["bom"]] == ["C1", "F1"]
@@ -114,3 +116,17 @@ def test_html_context_traces_each_check_back_to_its_inputs():
     assert [v.id for v in ctx["inputs"]] == ["a", "b", "d"]
     assert ctx["counts"] == {"pass": 1, "warn": 2, "fail": 1}
     assert ctx["sources"] == ["derived"]
+
+
+def test_results_json_names_the_unit_of_the_stored_number():
+    # a life kept in seconds with hours for display, a ratio kept as a fraction: results.json
+    # names the unit of the number it stores (SI) and, beside it, the unit the report shows
+    L = Ledger()
+    L.given("reservoir.life", "L", 40000 * 3600.0, "h", "life")
+    L.given("output.tolerance", "t", 0.05, "%", "tolerance")
+    d = dataclasses.replace(hand_design(), values=dict(L.values), checks=[])
+    values = results_dict(d)["values"]
+    assert values["reservoir.life"] == {**values["reservoir.life"], "value": 1.44e8,
+                                        "unit": "s", "display_unit": "h"}
+    assert values["output.tolerance"]["unit"] == "1"
+    assert values["output.tolerance"]["display_unit"] == "%"
