@@ -5,7 +5,8 @@ from __future__ import annotations
 from .trace import Assumption
 
 
-def design_assumptions(reg, n_corners: int, raised: dict[str, str]) -> list[Assumption]:
+def design_assumptions(reg, n_corners: int, raised: dict[str, str],
+                       conflicts: list[tuple[str, str]] = ()) -> list[Assumption]:
     """Assumptions of one rail: the engine's model of this regulator kind at its own number of
     corners, the transformer and capacitor models, and every floor the engine raised."""
     out = [
@@ -59,4 +60,6 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str]) -> list[Assu
                               + " ".join(reg.not_covered), "scope of this version"))
     out += [Assumption(f"assume.raised.{name}", f"Raised after the engine verification: "
                        f"{reason}.", "docgen pipeline") for name, reason in raised.items()]
+    out += [Assumption(f"assume.conflict.{name}", text, "requirements file and parts library")
+            for name, text in dict(conflicts).items()]
     return out

@@ -105,9 +105,12 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     return run_rail(loaded, loaded.requirements, library, samples)
 
 
-def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | None) -> Design:
-    """One rail: a single output fed by its own rectifier and reservoir."""
-    ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=library)
+def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | None, *,
+             shared: str = "") -> Design:
+    """One rail: a single output fed by its own rectifier and reservoir. ``shared`` says why
+    the transformer in ``spec`` was chosen for both rails of a split supply (empty otherwise)."""
+    ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=library,
+                        shared_transformer=shared)
     n_samples = spec.analysis.samples if samples is None else samples
     env = spec.environment
     reg = regulator(spec.output[0].regulator)
@@ -115,6 +118,7 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
                      t_min=env.ambient_min, t_max=env.ambient_max, reg=reg)
     for _ in range(MAX_PASSES):
         ctx.picks.clear()
+        ctx.conflicts.clear()
         L = _guarded(partial(_size, ctx, reg))
         cr = _guarded(partial(verify, L, samples=0, surge=False))
         if not raise_floors(ctx, L, cr, reg):
@@ -141,7 +145,7 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
         equations=dict(L.equations),
         checks=checks,
         parts=bom_lines(ctx, L, reg),
-        assumptions=design_assumptions(reg, cr.n_corners, ctx.floors.reasons),
+        assumptions=design_assumptions(reg, cr.n_corners, ctx.floors.reasons, ctx.conflicts),
         cautions=cautions,
         status=overall_status(checks),
         tool_version=__version__,

@@ -85,12 +85,6 @@ def _check_neg(c: Check) -> Check:
                                ref=REF_MAP.get(c.ref, c.ref))
 
 
-def _shared_note(design: Design, note: str) -> None:
-    for vid in ("transformer.v_rated", "transformer.va", "transformer.regulation"):
-        if vid in design.values:
-            design.values[vid] = dataclasses.replace(design.values[vid], source=note)
-
-
 def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail) -> Design:
     """Both rails of a split supply, sized and verified by ``run_rail`` (the single-rail
     pipeline, passed in so that this module does not import it)."""
@@ -100,13 +94,13 @@ def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail) -> Des
     a = run_rail(loaded, _rail_spec(spec, ipos), library, 0)
     b = run_rail(loaded, _rail_spec(spec, ineg), library, 0)
     shared = _shared_transformer(spec, a, b, library)
-    a = run_rail(loaded, _rail_spec(spec, ipos, shared), library, samples)
-    b = run_rail(loaded, _rail_spec(spec, ineg, shared), library, samples)
     fixed = bool(spec.transformer.part) or spec.transformer.secondary is not None
-    if not fixed:
-        note = "shared by both rails: the larger half-winding voltage, the combined current"
-        _shared_note(a, note)
-        _shared_note(b, note)
+    # A transformer docgen chose for both rails is passed to each rail as a sized one, never
+    # as if the file had named it.
+    note = "" if fixed else ("chosen for both rails: the larger half-winding voltage, the "
+                             "combined current")
+    a = run_rail(loaded, _rail_spec(spec, ipos, shared), library, samples, shared=note)
+    b = run_rail(loaded, _rail_spec(spec, ineg, shared), library, samples, shared=note)
     return _merge(loaded, spec, a, b, library)
 
 

@@ -48,13 +48,40 @@ def _zener_part(ctx: SizingContext, L: Ledger, vz: float):
 
     # the floor is a rating; the selector divides the dissipation by the derating itself
     power = max(ctx.floors.zener_power * spec.margins.zener_power_derating, 1e-6)
-    sel = select_zener(ctx.library.zeners, voltage=vz, power=power,
+    # a power rating written in the file is a minimum for the part's own rating
+    candidates = [p for p in ctx.library.zeners
+                  if z.power is None or p.power >= z.power * (1 - 1e-9)]
+    sel = select_zener(candidates, voltage=vz, power=power,
                        ambient_c=spec.environment.ambient_max,
                        lead_to_ambient=z.lead_to_ambient,
                        power_derating=spec.margins.zener_power_derating)
     part = require(sel, f"{vz:g} V zener diode")
     ctx.picks["DZ1"] = Pick("DZ1", "zener", "library", part, sel.reason, sel.generic)
     return part
+
+
+# file field -> (part attribute, unit) of the zener figures a library part states itself
+_PART_FIGURES = {"voltage": ("voltage", "V"), "tolerance": ("tolerance", "%"),
+                 "tempco": ("tempco", "%/degC"), "knee_current": ("knee_current", "A"),
+                 "dynamic_resistance": ("dynamic_resistance", "ohm"),
+                 "test_current": ("test_current", "A")}
+
+
+def _note_conflicts(ctx: SizingContext, z, part) -> None:
+    """Figures written in the file that the chosen part states otherwise, made visible."""
+    from ..units import format_quantity as fq
+
+    for name, (attr, unit) in _PART_FIGURES.items():
+        given = getattr(z, name, None)
+        stated = getattr(part, attr, None)
+        if name not in z.model_fields_set or given is None or stated is None:
+            continue
+        if abs(given - stated) > 1e-9 * max(abs(given), abs(stated), 1e-30):
+            ctx.conflicts.append((f"output.zener.{name}", (
+                f"The file gives output[0].zener.{name} = {fq(given, unit)}, but the zener "
+                f"is the library part {part.id}, which states {fq(stated, unit)}; the design "
+                "uses the part's figure, because the part is what will be fitted. Remove the "
+                "field, or name a part that matches it with [output.zener] part.")))
 
 
 def size_needs(ctx: SizingContext, L: Ledger) -> None:
@@ -74,6 +101,7 @@ def size_needs(ctx: SizingContext, L: Ledger) -> None:
         vz = z.voltage if z.voltage is not None else out.voltage
     part = _zener_part(ctx, L, vz)
     if part is not None:
+        _note_conflicts(ctx, z, part)
         src = f"library part {part.id}"
         L.given("zener.v_nom", r"V_Z", part.voltage, "V", "Zener voltage (nominal)", source=src)
         L.given("zener.tol", r"t_Z", part.tolerance, "%", "Zener voltage tolerance", source=src)

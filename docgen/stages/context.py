@@ -64,6 +64,10 @@ class SizingContext:
     spec_path: str = ""
     library: Any = None  # docgen.parts.library.PartsLibrary or None
     floors: Floors = field(default_factory=Floors)
+    shared_transformer: str = ""  # why the transformer was chosen for both rails (split only)
+    # (field, text): a value written in the file that a chosen part states differently; the
+    # document shows each one (a value in the file is never replaced silently)
+    conflicts: list[tuple[str, str]] = field(default_factory=list)
     picks: dict[str, Pick] = field(default_factory=dict)
 
     def fixed_part(self, kind: str, part_id: str, location: str) -> Any:

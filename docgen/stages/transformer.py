@@ -87,20 +87,29 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
            {"k": "margins.secondary_rms_factor", "i": "regulator.i_in_design"},
            lambda k, i: k * i)
 
+    shared = ctx.shared_transformer
     if t.part:
         part = ctx.fixed_part("transformer", t.part, "transformer.part")
-        ctx.picks["T1"] = Pick("T1", "transformer", "fixed", part, f"{part.id} named in the file")
+        ctx.picks["T1"] = Pick("T1", "transformer", "library" if shared else "fixed", part,
+                               shared or f"{part.id} named in the file")
         _from_part(L, part)
     elif t.secondary is not None:
+        how = "chosen for both rails" if shared else "fixed part"
         L.given("transformer.v_rated", r"V_{sec}", t.secondary, "V",
-                "Rated secondary voltage (fixed part)")
-        L.given("transformer.va", "S", t.va, "VA", "Rated apparent power (fixed part)")
-        ctx.picks["T1"] = Pick("T1", "transformer", "fixed", reason="ratings given in the file")
+                f"Rated secondary voltage ({how})", source=shared)
+        L.given("transformer.va", "S", t.va, "VA", f"Rated apparent power ({how})",
+                source=shared)
+        ctx.picks["T1"] = Pick("T1", "transformer", "sized" if shared else "fixed",
+                               reason=shared or "ratings given in the file")
     else:
         _size_rating(ctx, L)
 
     if "transformer.regulation" in L:
         pass
+    elif t.regulation is not None and shared:
+        L.given("transformer.regulation", r"\mathrm{Reg}", t.regulation, "%",
+                "Transformer regulation (typical for the shared rating)",
+                source=shared + "; typical regulation for its VA (common practice)")
     elif t.regulation is not None:
         L.given("transformer.regulation", r"\mathrm{Reg}", t.regulation, "%",
                 "Transformer regulation (from the file)")
