@@ -1,0 +1,237 @@
+"""Readers of the parts library's fields: quantities with units, fractions, lengths,
+decibels, prices, text, flags and choices, each with the wording of its error."""
+
+from __future__ import annotations
+
+import difflib
+import math
+import re
+from typing import Annotated, Any
+
+from pydantic import BeforeValidator
+
+from ..units import as_float, expected_text, format_quantity, parse_quantity, show_raw
+from . import eseries
+
+
+class _Reader:
+    expects = "a value"
+
+    def __call__(self, raw: Any) -> Any:  # pragma: no cover - overridden
+        raise NotImplementedError
+
+
+class _Quantity(_Reader):
+    """Quantity text or SI number -> SI float, with range checks in the field's own unit."""
+
+    def __init__(self, dimension: str, *, sign: str = "positive", unit: str | None = None,
+                 low: float | None = None, high: float | None = None, hint: str = "") -> None:
+        self.dimension = dimension
+        self.sign = sign  # "positive" (> 0), "non-negative" (>= 0) or "any"
+        self.unit = unit  # display unit for messages
+        self.low = low
+        self.high = high
+        self.hint = hint
+        self.expects = expected_text(dimension)
+
+    def _show(self, value: float) -> str:
+        if self.unit == "1/K":
+            return f"{value * 100:g} %/K"
+        return format_quantity(value, self.unit) if self.unit is not None else f"{value:g}"
+
+    def __call__(self, raw: Any) -> float:
+        value = parse_quantity(raw, self.dimension)  # UnitError is a ValueError
+        what = self.dimension.replace("_", " ")
+        if self.sign == "positive" and not value > 0:
+            raise ValueError(f"expected a positive {what}, got {show_raw(raw)}{self.hint}")
+        if self.sign == "non-negative" and value < 0:
+            raise ValueError(f"expected zero or a positive {what}, got {show_raw(raw)}{self.hint}")
+        if self.low is not None and value < self.low:
+            raise ValueError(f"expected at least {self._show(self.low)}, "
+                             f"got {show_raw(raw)}{self.hint}")
+        if self.high is not None and value > self.high:
+            raise ValueError(f"expected at most {self._show(self.high)}, "
+                             f"got {show_raw(raw)}{self.hint}")
+        return value
+
+
+class _Fraction(_Reader):
+    """A ratio such as "20 %" or 0.2, in [0, high]; catches 20 meant as 20 %."""
+
+    def __init__(self, high: float = 1.0, *, positive: bool = False) -> None:
+        self.high = high
+        self.positive = positive
+        self.expects = expected_text("ratio")
+
+    def __call__(self, raw: Any) -> float:
+        value = parse_quantity(raw, "ratio")
+        if value < 0 or (self.positive and value == 0):
+            raise ValueError(f"expected a {'positive' if self.positive else 'non-negative'} "
+                             f"fraction such as \"10 %\" or 0.1, got {show_raw(raw)}")
+        if value > self.high:
+            hint = (f"; if {show_raw(raw)} is meant in percent, write \"{raw} %\""
+                    if isinstance(raw, (int, float)) and not isinstance(raw, bool) else "")
+            raise ValueError(f"expected at most {self.high * 100:g} %, got {show_raw(raw)}{hint}")
+        return value
+
+
+class _Length(_Reader):
+    """Length text ("12.5 mm") or a number in metres. (docgen.units has no length dimension.)"""
+
+    expects = '"12.5 mm" or a number in metres'
+    _UNITS = {"mm": 1e-3, "cm": 1e-2, "m": 1.0}
+
+    def __call__(self, raw: Any) -> float:
+        if isinstance(raw, bool):
+            raise ValueError(f"expected {self.expects}, got a true/false value")
+        if isinstance(raw, (int, float)):
+            value = as_float(raw)
+        elif isinstance(raw, str):
+            m = re.fullmatch(r"[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)"
+                             r"[ \t]*([a-z]*)[ \t]*", raw)
+            if not m or m.group(2) not in self._UNITS:
+                raise ValueError(f"expected {self.expects}, got {show_raw(raw)}")
+            value = float(m.group(1)) * self._UNITS[m.group(2)]
+        else:
+            raise ValueError(f"expected {self.expects}, got {type(raw).__name__}")
+        if not (math.isfinite(value) and value > 0):
+            raise ValueError(f"expected a positive length, got {show_raw(raw)}")
+        return value
+
+
+class _Decibel(_Reader):
+    """Decibels as "80 dB" or a plain number of dB (kept in dB)."""
+
+    expects = '"80 dB" or a number of decibels'
+
+    def __call__(self, raw: Any) -> float:
+        if isinstance(raw, bool):
+            raise ValueError(f"expected {self.expects}, got a true/false value")
+        if isinstance(raw, (int, float)):
+            value = as_float(raw)
+        elif isinstance(raw, str):
+            m = re.fullmatch(r"[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+))[ \t]*(dB)?[ \t]*",
+                             raw)
+            if not m:
+                raise ValueError(f"expected {self.expects}, got {show_raw(raw)}")
+            value = float(m.group(1))
+        else:
+            raise ValueError(f"expected {self.expects}, got {type(raw).__name__}")
+        if not (math.isfinite(value) and value > 0):
+            raise ValueError(f"expected a positive number of dB, got {show_raw(raw)}")
+        return value
+
+
+class _Number(_Reader):
+    """A plain positive number (a gain, a count)."""
+
+    expects = "a positive number"
+
+    def __call__(self, raw: Any) -> float:
+        if isinstance(raw, bool) or not isinstance(raw, (int, float)):
+            raise ValueError(f"expected a plain positive number, got {show_raw(raw)}")
+        value = as_float(raw)
+        if not (math.isfinite(value) and value > 0):
+            raise ValueError(f"expected a plain positive number, got {show_raw(raw)}")
+        return value
+
+
+class _Price(_Reader):
+    expects = "a plain number in the library's currency"
+
+    def __call__(self, raw: Any) -> float:
+        if isinstance(raw, bool) or not isinstance(raw, (int, float)):
+            raise ValueError("expected a price as a plain number such as 0.45, "
+                             f"got {show_raw(raw)}")
+        value = as_float(raw)
+        if not (math.isfinite(value) and value >= 0):
+            raise ValueError(f"expected a price of zero or more, got {show_raw(raw)}")
+        return value
+
+
+class _Text(_Reader):
+    expects = "text in quotes"
+
+    def __init__(self, *, part_id: bool = False) -> None:
+        self.part_id = part_id
+        if part_id:
+            self.expects = 'a part id in quotes, such as "DP-CAP-3300U35"'
+
+    def __call__(self, raw: Any) -> str:
+        if not isinstance(raw, str):
+            raise ValueError(f"expected {self.expects}, got {_show_raw(raw)}")
+        if self.part_id and (not raw or any(c.isspace() for c in raw)):
+            raise ValueError(f"expected a part id without spaces, got {show_raw(raw)}")
+        return raw
+
+
+class _Flag(_Reader):
+    expects = "true or false"
+
+    def __call__(self, raw: Any) -> bool:
+        if not isinstance(raw, bool):
+            raise ValueError(f"expected true or false (no quotes), got {_show_raw(raw)}")
+        return raw
+
+
+class _Choice(_Reader):
+    def __init__(self, *choices: str, case: bool = False) -> None:
+        self.choices = choices
+        self.case = case
+        self.expects = "one of " + ", ".join(f'"{c}"' for c in choices)
+
+    def __call__(self, raw: Any) -> str:
+        if isinstance(raw, str):
+            for c in self.choices:
+                if raw == c or (not self.case and raw.lower() == c.lower()):
+                    return c
+            close = difflib.get_close_matches(raw, self.choices, n=1, cutoff=0.5)
+            hint = f"; did you mean {close[0]!r}?" if close else ""
+            raise ValueError(f"expected {self.expects}, got {show_raw(raw)}{hint}")
+        raise ValueError(f"expected {self.expects}, got {_show_raw(raw)}")
+
+
+def _show_raw(raw: Any) -> str:
+    if isinstance(raw, bool):
+        return "true" if raw else "false"
+    if isinstance(raw, (dict, list)):
+        return "a table" if isinstance(raw, dict) else "a list"
+    return show_raw(raw)
+
+
+def _q(dimension: str, unit: str | None = None, **kw: Any) -> Any:
+    return Annotated[float, BeforeValidator(_Quantity(dimension, unit=unit, **kw))]
+
+
+Voltage = _q("voltage", "V")
+Current = _q("current", "A")
+CurrentOrZero = _q("current", "A", sign="non-negative")
+Capacitance = _q("capacitance", "F")
+Resistance = _q("resistance", "ohm")
+Power = _q("power", "W")
+ApparentPower = _q("apparent_power", "VA")
+Frequency = _q("frequency", "Hz")
+Time = _q("time", "s")
+ChargeIntegral = _q("charge_integral", "A2s")
+ThermalResistance = _q("thermal_resistance", "K/W")
+Temperature = _q("temperature", "degC", sign="any", low=-60.0, high=250.0)
+TempCo = _q("tempco", "1/K", sign="any", low=-0.01, high=0.01)
+Tolerance = Annotated[float, BeforeValidator(_Fraction(0.5, positive=True))]
+Regulation = Annotated[float, BeforeValidator(_Fraction(2.0))]
+TanDelta = Annotated[float, BeforeValidator(_Fraction(1.0, positive=True))]
+Length = Annotated[float, BeforeValidator(_Length())]
+Decibel = Annotated[float, BeforeValidator(_Decibel())]
+Number = Annotated[float, BeforeValidator(_Number())]
+Price = Annotated[float, BeforeValidator(_Price())]
+Text = Annotated[str, BeforeValidator(_Text())]
+PartId = Annotated[str, BeforeValidator(_Text(part_id=True))]
+Flag = Annotated[bool, BeforeValidator(_Flag())]
+SeriesName = Annotated[str, BeforeValidator(_Choice(*eseries.SERIES, case=False))]
+
+
+def _choice(*choices: str, case: bool = False) -> Any:
+    return Annotated[str, BeforeValidator(_Choice(*choices, case=case))]
+
+
+# --------------------------------------------------------------------------------------------
+# Part models
