@@ -15,7 +15,10 @@ half-period symmetry and shoots with Newton on a differentiated period map):
 - the periodic state is found by a secant iteration on the period map, with brentq as the
   fall-back;
 - averages and RMS values are integrated from the dense output with Simpson's rule, extremes
-  found by sampling and scipy's bounded scalar minimiser.
+  found by sampling and scipy's bounded scalar minimiser;
+- the switch-on transient (closing at the crest, capacitor empty) is integrated the same
+  event-driven way over as many pulse periods as the documented stop rule takes (see
+  Point.switch_on), I^2 t as an extra state.
 
 The circuit model is the one the project documents for its engine (docs/references.md
 [SCHADE-1943] for why a numerical solution is needed): the transformer as an EMF

@@ -10,6 +10,16 @@ the document names beside a check, and integrated with tests/reference/independe
 solve_ivp, event-driven; never the project's engine). Each engine figure the document claims
 must agree within 0.5 %, and each check's verdict (pass / warn / fail) must be unchanged.
 
+The model of the design follows the production rules: zener corners at the tolerance and
+temperature extremes with self-heating (zener.v_min_hot / v_max_hot; a shunt zener as its knee
+V_Z - r_z I_ZT); a follower's output window with V_BE at its spread (q.v_be_min / v_be_max); a
+three-terminal regulator at its output-setpoint extremes, dropping out in the circuit below the
+setpoint plus its typical dropout, its output held to the input less the worst-case dropout
+(reg.dropout_max) and its ripple rejection the near-dropout figure (reg.rr_low) when the trough is
+within reg.rr_window of reg.v_in_floor; the switch-on as the whole transient until charged, at
+least and full load; the fuse's operating current with the magnetising current, both rails of a
+split supply.
+
 Figures the document derives from the engine's waveform with a regulator's formula are
 recomputed here from the independent waveform with the published relation:
 - three-terminal: output ripple = input ripple x 10^(-RR/20) ([CP-RR]); regulator power
@@ -30,11 +40,11 @@ from pathlib import Path
 
 import pytest
 
-from docgen.verify.checks import margin_of, status_of
 from docgen.engine import Circuit
 from docgen.pipeline import run
 from docgen.render.results_json import results_dict
 from docgen.spec import load_requirements
+from docgen.verify.checks import margin_of, status_of
 
 from .independent import Point
 

@@ -12,11 +12,11 @@ import numpy as np
 import pytest
 
 from docgen.cautions import STANDING, triggered_cautions
+from docgen.design import Check
 from docgen.regulators import regulator
 from docgen.topology import topology as topology_record
-from docgen.verify.corners import corner_points, sample_points
-from docgen.design import Check
 from docgen.trace import Ledger
+from docgen.verify.corners import corner_points, sample_points
 
 
 def corner_ledger() -> Ledger:
@@ -27,7 +27,11 @@ def corner_ledger() -> Ledger:
                      ("zener.v_knee_min", 8.2), ("zener.v_knee_max", 9.4),
                      ("zener.v_min", 8.6), ("zener.v_max", 9.6), ("zener.v_nom", 9.1),
                      ("zener.tol", 0.05), ("zener.r_z", 2.0), ("zener.i_zt", 0.02),
-                     ("zener.r", 150.0), ("zener.r_tol", 0.05)):
+                     ("zener.r", 150.0), ("zener.r_tol", 0.05),
+                     # zener voltage extremes with self-heating, and the data for the samples'
+                     # hand worst-case self-heating: 0.4 W x 100 K/W = 40 K, 0.06 %/K
+                     ("zener.v_min_hot", 8.5), ("zener.v_max_hot", 9.8), ("zener.p", 0.4),
+                     ("zener.theta_ja", 100.0), ("zener.tempco", 0.0006)):
         L.given(vid, vid, val, "", vid)
     return L
 
@@ -40,17 +44,20 @@ def test_zener_corners_are_the_full_cross_product():
     assert sorted(set(np.round(pts.line, 12))) == [0.9, 1.0, 1.06]
     assert sorted(set(np.round(pts.c * 1e6, 9))) == [1760.0, 2640.0]
     assert sorted(set(np.round(pts.r, 9))) == [142.5, 157.5]
-    assert sorted(set(pts.v_z)) == [8.2, 9.4]  # the knee extremes for a shunt zener
+    # a shunt zener enters as its knee, V_Z - r_z I_ZT (piecewise-linear zener model), at the
+    # hot extremes: 8.5 - 2 x 0.02 = 8.46 V and 9.8 - 0.04 = 9.76 V
+    assert sorted(set(np.round(pts.v_z, 12))) == [8.46, 9.76]
     assert sorted(set(pts.load)) == [0.0, 0.04]
     assert len(set(pts.name)) == 48
     k = pts.name.index("low line, full load, C -20 %, V_Z high, R +5 %")
-    assert (pts.line[k], pts.load[k], pts.v_z[k]) == (0.9, 0.04, 9.4)
+    assert (pts.line[k], pts.load[k]) == (0.9, 0.04)
+    assert pts.v_z[k] == pytest.approx(9.76, rel=1e-12)
     assert pts.c[k] == pytest.approx(1760e-6) and pts.r[k] == pytest.approx(157.5)
 
 
 def test_follower_uses_the_zener_voltage_and_series_kinds_drop_it():
     pts = corner_points(corner_ledger(), regulator("follower"))
-    assert sorted(set(pts.v_z)) == [8.6, 9.6]
+    assert sorted(set(pts.v_z)) == [8.5, 9.8]  # the base sits at V_Z itself, hot extremes
     L = corner_ledger()
     L.given("reg.v_out_min", "", 4.8, "V", "")
     L.given("reg.v_out_max", "", 5.2, "V", "")
@@ -70,6 +77,11 @@ def test_monte_carlo_samples_stay_in_their_bands_and_repeat():
     assert a.c.min() >= 1760e-6 * (1 - 1e-12) and a.c.max() <= 2640e-6 * (1 + 1e-12)
     assert a.r.min() >= 142.5 - 1e-9 and a.r.max() <= 157.5 + 1e-9
     assert a.load.min() >= 0.0 and a.load.max() <= 0.04
+    # V_Z: 9.1 V +/-5 % at 0..50 degC ambient plus 40 K self-heating, 0.06 %/K from 25 degC,
+    # less r_z I_ZT = 0.04 V: bounds 8.645 + 9.1 x 0.0006 x 15 - 0.04 = 8.68690 V and
+    # 9.555 + 9.1 x 0.0006 x 65 - 0.04 = 9.87990 V
+    assert a.v_z.min() >= 8.6869 - 1e-9 and a.v_z.max() <= 9.8799 + 1e-9
+    assert a.v_z.max() - a.v_z.min() > 0.9  # spread over most of the 1.19 V band
     # uniform draws [CP-MONTE-CARLO]: the mean of 2000 uniform line factors is near the middle
     # of the band, 0.98, within a few standard errors (0.046 / sqrt(2000) = 0.001)
     assert a.line.mean() == pytest.approx(0.98, abs=0.005)
@@ -94,7 +106,8 @@ def test_standing_cautions_defer_to_codes():
     (10.0, 9.0, 1.0, "half-wave", {"caution.half_wave_dc"}),  # DC in the core
 ])
 def test_triggered_cautions_at_the_standards_limits(v_dc, v_sec, energy, topology, expected):
-    got = {c.id for c in triggered_cautions(v_dc, v_sec, energy, [], topology=topology_record(topology))}
+    got = {c.id for c in triggered_cautions(v_dc, v_sec, energy, [],
+                                            topology=topology_record(topology))}
     assert got == expected
 
 
