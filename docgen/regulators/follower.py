@@ -169,13 +169,9 @@ def size_follower(ctx: SizingContext, L: Ledger) -> None:
     L.calc("zener.r_p", eq.POWER_V2R, r"P_{R1,max}", "W", "R1 dissipation, worst case",
            {"a": "reservoir.v_mean_high", "b": "zener.v_min", "R": "zener.r"},
            lambda a, b, R: (a - b) ** 2 / R)
-    m = ctx.spec.margins
-    L.given("margins.zener_power", r"k_{Z,P}", m.zener_power_derating, "%",
-            "Zener power derating", defaulted="zener_power_derating" not in m.model_fields_set)
-    L.given("margins.resistor_power", r"k_{R,P}", m.resistor_power_derating, "%",
-            "Resistor power derating",
-            defaulted="resistor_power_derating" not in m.model_fields_set)
-    from .zener_sizing import self_heating, zener_rating
+    from .zener_sizing import record_power_deratings, self_heating, zener_rating
+
+    record_power_deratings(ctx, L)
 
     L.calc("zener.p_rating_needed", eq.DERATED_NEED, r"P_{Z,rated,req}", "W",
            "Zener power rating needed", {"x": "zener.p", "k": "margins.zener_power"},

@@ -67,6 +67,16 @@ _PART_FIGURES = {"voltage": ("voltage", "V"), "tolerance": ("tolerance", "%"),
                  "test_current": ("test_current", "A")}
 
 
+def record_power_deratings(ctx: SizingContext, L: Ledger) -> None:
+    """The zener and resistor power deratings (shunt and follower alike)."""
+    m = ctx.spec.margins
+    L.given("margins.zener_power", r"k_{Z,P}", m.zener_power_derating, "%",
+            "Zener power derating", defaulted="zener_power_derating" not in m.model_fields_set)
+    L.given("margins.resistor_power", r"k_{R,P}", m.resistor_power_derating, "%",
+            "Resistor power derating",
+            defaulted="resistor_power_derating" not in m.model_fields_set)
+
+
 def _note_conflicts(ctx: SizingContext, z, part) -> None:
     """Figures written in the file that the chosen part states otherwise, made visible."""
     from ..units import format_quantity as fq
@@ -180,7 +190,6 @@ def _r_max(a: float, b: float, i: float, f: float, c: float) -> float:
 def size_zener(ctx: SizingContext, L: Ledger) -> None:
     spec = ctx.spec
     out = spec.output[0]
-    m = spec.margins
     L.calc("regulator.i_trough", eq.SUM2, r"I_T", "A", "Input current at the trough, full load",
            {"a": "output.i_max", "b": "zener.i_min"}, lambda a, b: a + b)
     if out.series_resistor is not None:
@@ -265,11 +274,7 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
            lambda v, z, R: v * z / (R + z))
 
     # Ratings: fixed parts are taken, others rounded to the next standard class.
-    L.given("margins.zener_power", r"k_{Z,P}", m.zener_power_derating, "%",
-            "Zener power derating", defaulted="zener_power_derating" not in m.model_fields_set)
-    L.given("margins.resistor_power", r"k_{R,P}", m.resistor_power_derating, "%",
-            "Resistor power derating",
-            defaulted="resistor_power_derating" not in m.model_fields_set)
+    record_power_deratings(ctx, L)
     L.calc("zener.p_rating_needed", eq.DERATED_NEED, r"P_{Z,rated,req}", "W",
            "Zener power rating needed", {"x": "zener.p", "k": "margins.zener_power"},
            lambda x, k: x / k)
