@@ -99,8 +99,9 @@ def schematic_svg(drawing: SchematicDrawing) -> str:
 
 # Roles of the labelled parts in each drawing style.
 _ROLES = {
-    "zener": {"R": ["series"], "D": ["zener"], "C": ["reservoir", "output"]},
-    "follower": {"R": ["base"], "D": ["zener"], "Q": ["pass"], "C": ["reservoir", "output"]},
+    "zener": {"R": ["series"], "D": ["zener"], "DZ": ["zener"], "C": ["reservoir", "output"]},
+    "follower": {"R": ["base"], "D": ["zener"], "DZ": ["zener"], "Q": ["pass"],
+                 "C": ["reservoir", "output"]},
     "three-terminal": {"U": ["reg"], "C": ["reservoir", "input", "output"]},
     "adjustable": {"U": ["reg"], "R": ["upper", "lower"], "C": ["reservoir", "input", "output"]},
     "none": {"C": ["reservoir", "output"]},

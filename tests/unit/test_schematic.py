@@ -270,3 +270,15 @@ def test_labels_survive_into_the_pdf_as_text(tmp_path):
     text = _norm(pypdf.PdfReader(pdf).pages[0].extract_text())
     for needle in ("3300 uF", "75 ohm 2 W", "sensor rail", "9.1 V, 40 mA", "BR1", "mains"):
         assert needle in text
+
+
+def test_a_zener_designated_dz_takes_the_zener_role():
+    # BOM designators for zeners are DZ1, DZ2: the drawing must label that part, not invent a
+    # bare D1 and list DZ1 as an extra
+    out = OutputDrawing("rail", "zener", "+", {"C1": "2200 uF 50 V", "R1": "150 ohm 5 W",
+                                                "DZ1": "9.1 V 5 W"}, "9.1 V, 40 mA")
+    svg = schematic_svg(SchematicDrawing("bridge", "230 V 50 Hz", "F1 50 mA T", "T1 15 V 6 VA",
+                                         "BR1 1 kV 2 A", outputs=(out,)))
+    desc = svg.split("<desc>")[1].split("</desc>")[0].splitlines()
+    assert "DZ1 9.1 V 5 W" in desc
+    assert "D1" not in [line.split()[0] for line in desc if line]
