@@ -34,3 +34,12 @@ def test_templates_package_maps_to_the_templates_folder():
     config = tomllib.loads((ROOT / "pyproject.toml").read_text(encoding="utf-8"))
     assert config["tool"]["setuptools"]["package-dir"]["docgen.templates"] == "templates"
     assert (ROOT / "templates" / "__init__.py").is_file()
+
+
+def test_both_command_names_start_the_same_program():
+    """The short name clashes with an unrelated distribution; the long one is ours alone."""
+    config = tomllib.loads((ROOT / "pyproject.toml").read_text(encoding="utf-8"))
+    scripts = config["project"]["scripts"]
+    assert scripts["docgen"] == "docgen.cli:main"
+    assert scripts["linear-supply-docgen"] == scripts["docgen"]
+    assert config["project"]["name"] == "linear-supply-docgen"
