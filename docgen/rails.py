@@ -25,7 +25,11 @@ from .verify.checks import make_check, overall_status
 NEG = "neg."
 # Designators of the negative rail (the positive rail keeps the single-rail ones).
 REF_MAP = {"C1": "C2", "R1": "R2", "DZ1": "DZ2", "U1": "U2", "Q1": "Q2", "HS1": "HS3",
-           "HS2": "HS4", "R2": "R4", "R3": "R5", "D1": "D3", "R9": "R10"}
+           "HS2": "HS4", "R2": "R4", "R3": "R5", "D1": "D3", "R9": "R10", "C2": "C5",
+           "C3": "C6"}
+# Designators of the positive rail that a single rail would share with the negative rail's
+# reservoir C2: the regulator's input and output capacitors move up.
+POS_REF_MAP = {"C2": "C3", "C3": "C4"}
 
 SPLIT_ASSUMPTION = Assumption(
     "assume.split",
@@ -181,7 +185,8 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
     # its place in the document.
     stages += [Stage("neg:" + s.id, "Negative rail: " + s.title, s.intro) for s in b.stages]
     parts = [fuse_line(ctx, L) if p.ref == "F1" else
-             dataclasses.replace(p, description=p.description + " (positive rail)")
+             dataclasses.replace(p, ref=POS_REF_MAP.get(p.ref, p.ref),
+                                 description=p.description + " (positive rail)")
              if p.ref != "T1" else p for p in a.parts]
     parts += [dataclasses.replace(p, ref=REF_MAP.get(p.ref, p.ref),
                                   description=p.description + " (negative rail)",
