@@ -192,12 +192,17 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
                                   description=p.description + " (negative rail)",
                                   value_ids=tuple(NEG + i for i in p.value_ids))
               for p in b.parts if p.ref not in ("T1", "F1")]
+    # Cautions of both rails once each; the rating cautions are written again from the merged
+    # checks, so each part (U1 and U2 alike) gets its own under its own designator.
+    from .cautions import rating_cautions
+
     seen: set[str] = set()
     cautions = []
     for c in a.cautions + b.cautions:
-        if c.id not in seen:
+        if c.id not in seen and not c.id.startswith("caution.near_rating."):
             seen.add(c.id)
             cautions.append(c)
+    cautions += rating_cautions(checks)
     assumptions = list(a.assumptions) + [SPLIT_ASSUMPTION] + [
         dataclasses.replace(x, id=NEG + x.id, text="Negative rail: " + x.text)
         for x in b.assumptions if x.id.startswith("assume.raised.")]

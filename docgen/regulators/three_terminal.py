@@ -228,7 +228,7 @@ class ThreeTerminal(Regulator):
     def size(self, ctx, L):
         series_ripple(ctx, L)
         L.calc("reg.p_hand", eq.REG_POWER, r"P_{reg}", "W",
-               "Regulator dissipation at high line, full load (hand)",
+               "Regulator dissipation at high line, full load, initial estimate (hand formula)",
                {"v": "reservoir.v_mean_high", "o": "reg.v_out_min", "i": "output.i_max",
                 "q": "reg.i_q"}, lambda v, o, i, q: (v - o) * i + v * q)
         size_heat_budget(ctx, L, "reg", "U1", "regulator")

@@ -11,10 +11,12 @@ from jinja2 import pass_context
 
 from ..design import Design
 from ..trace import TracedValue
+from ..verify.stresses import pairs as initial_vs_verified
 from . import filters
 from .bom import bom_rows
 from .mathsvg import formula_data_uri
 from .netlist import netlist
+from .summary import summary_notes
 
 
 @lru_cache(maxsize=1)
@@ -137,8 +139,10 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
     spec = design.requirements
     values: list[TracedValue] = list(design.values.values())
     by_stage: dict[str, list[dict[str, Any]]] = {}
+    verified = initial_vs_verified(design.values)
     for v in values:
         item = {
+            "verified": verified.get(v.id),
             "v": v,
             "anchor": filters.anchor(v.id),
             "computed": bool(v.latex),
@@ -155,8 +159,8 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
                            key=lambda c: ({"fail": 0, "warn": 1, "pass": 2}[c.status], c.margin))
     sources = sorted({e.source for e in design.equations.values()})
     key_ids = ["transformer.v_rated", "transformer.va", "reservoir.c", "reservoir.v_rating",
-               "zener.r", "zener.p_rating", "engine.output_ripple", "engine.zener_power",
-               "engine.resistor_power", "engine.transformer_current", "engine.va_nominal",
+               "zener.r", "zener.p_rating", "engine.output_ripple", "engine.transistor_power",
+               "engine.regulator_power", "engine.zener_power", "engine.resistor_power", "engine.transformer_current", "engine.va_nominal",
                "engine.efficiency", "reservoir.life"]
     return {
         "d": design,
@@ -169,6 +173,7 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
         "checks_sorted": checks_sorted,
         "attention": [c for c in checks_sorted if c.status != "pass"],
         "key_values": [design.values[k] for k in key_ids if k in design.values],
+        "summary_notes": summary_notes(design),
         "parts": design.parts,
         "cautions": design.cautions,
         "assumptions": design.assumptions,
