@@ -360,7 +360,9 @@ class Follower(Regulator):
             line("Q1", "transistor", f"NPN {v('q.v_ce_max')}",
                  f"NPN power transistor, V_CEO at least {v('q.v_ce_max')}, I_C at least "
                  f"{v('output.i_max')}, h_FE at least {v('q.h_fe')}, SOA covering "
-                 f"{v('q.v_ce_hand')} at {v('output.i_max')}", ("q.v_ce_max",))]
+                 f"{v('q.v_ce_hand')} at {v('output.i_max')} (initial estimate at high line)"
+                 + (f", dissipation {v('engine.transistor_power')} (verified)"
+                    if "engine.transistor_power" in L else ""), ("q.v_ce_max",))]
 
 
 KIND = Follower()
