@@ -14,8 +14,9 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str],
                    f"Ratings and checks come from the waveform engine at {n_corners} worst-case "
                    "corners: exponential diodes with series resistance, the transformer as an "
                    "EMF behind its winding resistance and leakage inductance, the capacitor "
-                   f"with its ESR, {reg.load_model}. The hand formulas are shown beside them "
-                   "for review.",
+                   f"with its ESR, {reg.load_model}. The hand formulas are the initial sizing "
+                   "(initial estimates); where the engine verifies the same stress its figure "
+                   "is shown beside them.",
                    "docgen waveform engine, verified against scipy.integrate.solve_ivp"),
         Assumption("assume.transformer_model",
                    "The transformer's EMF is its no-load voltage; its regulation is taken as a "

@@ -10,7 +10,6 @@ from ..topology import topology
 from ..trace import Ledger
 from ..units import format_quantity as fq
 
-
 # A library pick states the needs it was chosen for: the sizing figures (initial estimates, or
 # floors raised by an earlier verification pass), not the verified stresses.
 LIBRARY_NOTE = (" (needs from the sizing figures; the verified stresses are in the part "

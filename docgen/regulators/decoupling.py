@@ -4,7 +4,7 @@ A three-terminal regulator needs a small capacitor at its input pins (the reserv
 length away) and one at its output for stability and transient response. Their values are not
 sized from the design: they are the capacitors makers' data sheets typically show in the
 standard application circuit (from memory, typical of makers' data sheets; the regulator's own
-data sheet overrides them). Each is rated for the largest voltage it sees after the capacitor
+data sheet overrides them) [CP-REGULATOR-CAPS]. Each is rated for the largest voltage it sees after the capacitor
 voltage derating (common practice): the input one for the reservoir's no-load peak, the output
 one for the highest output.
 """

@@ -271,7 +271,8 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
            "Series-resistor dissipation, initial estimate (hand formula)",
            {"a": "reservoir.v_mean_high", "b": "zener.v_min", "R": "zener.r"},
            lambda a, b, R: (a - b) ** 2 / R)
-    L.calc("output.ripple", eq.DIVIDER, r"V_{r,out}", "V", "Output ripple at high line, initial estimate",
+    L.calc("output.ripple", eq.DIVIDER, r"V_{r,out}", "V",
+           "Output ripple at high line, initial estimate",
            {"v": "reservoir.ripple_high", "z": "zener.r_z", "R": "zener.r"},
            lambda v, z, R: v * z / (R + z))
 

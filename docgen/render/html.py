@@ -181,8 +181,9 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
     sources = sorted({e.source for e in design.equations.values()})
     key_ids = ["transformer.v_rated", "transformer.va", "reservoir.c", "reservoir.v_rating",
                "zener.r", "zener.p_rating", "engine.output_ripple", "engine.transistor_power",
-               "engine.regulator_power", "engine.zener_power", "engine.resistor_power", "engine.transformer_current", "engine.va_nominal",
-               "engine.efficiency", "reservoir.life"]
+               "engine.regulator_power", "engine.zener_power", "engine.resistor_power",
+               "engine.transformer_current", "engine.va_nominal", "engine.efficiency",
+               "reservoir.life"]
     return {
         "d": design,
         "spec": spec,

@@ -17,7 +17,7 @@ from __future__ import annotations
 
 import json
 import re
-from functools import lru_cache
+from functools import cache, lru_cache
 from html.parser import HTMLParser
 from pathlib import Path
 
@@ -51,7 +51,7 @@ def _loadable(path: Path) -> bool:
 BUILDABLE = [p for p in SPECS if _loadable(p)]
 
 
-@lru_cache(maxsize=None)
+@cache
 def built(path: Path):
     """(design, html, results) of one spec, built once for the whole module."""
     loaded = load_requirements(path)
