@@ -14,8 +14,9 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str],
                    f"Ratings and checks come from the waveform engine at {n_corners} worst-case "
                    "corners: exponential diodes with series resistance, the transformer as an "
                    "EMF behind its winding resistance and leakage inductance, the capacitor "
-                   f"with its ESR, {reg.load_model}. The hand formulas are shown beside them "
-                   "for review.",
+                   f"with its ESR, {reg.load_model}. The hand formulas are the initial sizing "
+                   "(initial estimates); where the engine verifies the same stress its figure "
+                   "is shown beside them.",
                    "docgen waveform engine, verified against scipy.integrate.solve_ivp"),
         Assumption("assume.transformer_model",
                    "The transformer's EMF is its no-load voltage; its regulation is taken as a "
@@ -29,8 +30,8 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str],
         out.append(Assumption(
             "assume.zener_model",
             "The zener conducts above its knee voltage (the rated voltage at its tolerance "
-            "and temperature extremes, plus its self-heating at the worst-case hand "
-            "dissipation: alpha V_Z P_Z R_thJA) with its dynamic resistance.",
+            "and temperature extremes, plus its self-heating at the initial-estimate "
+            "(hand formula) dissipation: alpha V_Z P_Z R_thJA) with its dynamic resistance.",
             "A. S. Sedra, K. C. Smith, Microelectronic Circuits (from memory)"))
     axes = ", ".join(("mains range", "capacitance", *reg.corner_axis_names, "load"))
     out += [
@@ -58,8 +59,10 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str],
         out.append(Assumption("assume.not_covered.regulator",
                               "Not covered for the " + (reg.title or reg.kind).lower() + ": "
                               + " ".join(reg.not_covered), "scope of this version"))
-    out += [Assumption(f"assume.raised.{name}", f"Raised after the engine verification: "
-                       f"{reason}.", "docgen pipeline") for name, reason in raised.items()]
+    out += [Assumption(f"assume.raised.{name}", "Raised after an earlier verification pass of "
+                       f"the sizing loop, where {reason}. The figures of the final design are "
+                       "those of the checks.", "docgen pipeline")
+            for name, reason in raised.items()]
     out += [Assumption(f"assume.conflict.{name}", text, "requirements file and parts library")
             for name, text in dict(conflicts).items()]
     return out

@@ -94,12 +94,37 @@ def triggered_cautions(
             "short circuit. Fit a bleeder and insulate the terminals.",
             "stored-energy threshold of 20 J used in equipment safety standards (from memory)",
             triggered_by="reservoir.energy"))
-    near = [c for c in checks if c.status == "warn" and c.ref]
-    for c in near:
+    out += rating_cautions(checks)
+    return out
+
+
+def rating_cautions(checks: list[Check]) -> list[Caution]:
+    """One caution per part run close to, or beyond, a rating: every part whose checks warn or
+    fail gets one, naming each such check with its margin (a part never gets two, and no part
+    with less margin is left out)."""
+    by_part: dict[str, list[Check]] = {}
+    for c in checks:
+        if c.ref and c.status in ("warn", "fail"):
+            by_part.setdefault(c.ref, []).append(c)
+    out = []
+    for ref, cs in by_part.items():
+        cs = sorted(cs, key=lambda c: c.margin)
+        failing = cs[0].status == "fail"
+        lines = []
+        for c in cs:
+            if c.margin < 0:
+                lines.append(f"{c.title}: the limit is exceeded by {-c.margin * 100:.1f} % at "
+                             f"the {c.corner} corner")
+            else:
+                lines.append(f"{c.title}: only {c.margin * 100:.1f} % of the limit is left at "
+                             f"the {c.corner} corner")
+        advice = ("A part beyond its rating fails early or at once; choose a larger part or "
+                  "relax the requirement." if failing else
+                  "A part run this close to its rating ages faster; consider the next size up.")
         out.append(Caution(
-            f"caution.near_rating.{c.id}", f"{c.ref} close to its rating",
-            f"{c.title}: only {c.margin * 100:.1f} % of the limit is left at the {c.corner} "
-            "corner. A part run this close to its rating ages faster; consider the next size up.",
+            f"caution.near_rating.{ref}",
+            f"{ref} {'beyond' if failing else 'close to'} its rating",
+            "; ".join(lines) + ". " + advice,
             "common practice (derating for reliability)",
-            triggered_by=c.id))
+            triggered_by=", ".join(c.id for c in cs)))
     return out

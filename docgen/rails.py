@@ -25,7 +25,11 @@ from .verify.checks import make_check, overall_status
 NEG = "neg."
 # Designators of the negative rail (the positive rail keeps the single-rail ones).
 REF_MAP = {"C1": "C2", "R1": "R2", "DZ1": "DZ2", "U1": "U2", "Q1": "Q2", "HS1": "HS3",
-           "HS2": "HS4", "R2": "R4", "R3": "R5", "D1": "D3", "R9": "R10"}
+           "HS2": "HS4", "R2": "R4", "R3": "R5", "D1": "D3", "R9": "R10", "C2": "C5",
+           "C3": "C6"}
+# Designators of the positive rail that a single rail would share with the negative rail's
+# reservoir C2: the regulator's input and output capacitors move up.
+POS_REF_MAP = {"C2": "C3", "C3": "C4"}
 
 SPLIT_ASSUMPTION = Assumption(
     "assume.split",
@@ -181,18 +185,24 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
     # its place in the document.
     stages += [Stage("neg:" + s.id, "Negative rail: " + s.title, s.intro) for s in b.stages]
     parts = [fuse_line(ctx, L) if p.ref == "F1" else
-             dataclasses.replace(p, description=p.description + " (positive rail)")
+             dataclasses.replace(p, ref=POS_REF_MAP.get(p.ref, p.ref),
+                                 description=p.description + " (positive rail)")
              if p.ref != "T1" else p for p in a.parts]
     parts += [dataclasses.replace(p, ref=REF_MAP.get(p.ref, p.ref),
                                   description=p.description + " (negative rail)",
                                   value_ids=tuple(NEG + i for i in p.value_ids))
               for p in b.parts if p.ref not in ("T1", "F1")]
+    # Cautions of both rails once each; the rating cautions are written again from the merged
+    # checks, so each part (U1 and U2 alike) gets its own under its own designator.
+    from .cautions import rating_cautions
+
     seen: set[str] = set()
     cautions = []
     for c in a.cautions + b.cautions:
-        if c.id not in seen:
+        if c.id not in seen and not c.id.startswith("caution.near_rating."):
             seen.add(c.id)
             cautions.append(c)
+    cautions += rating_cautions(checks)
     assumptions = list(a.assumptions) + [SPLIT_ASSUMPTION] + [
         dataclasses.replace(x, id=NEG + x.id, text="Negative rail: " + x.text)
         for x in b.assumptions if x.id.startswith("assume.raised.")]

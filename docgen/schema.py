@@ -123,6 +123,12 @@ def results_schema() -> dict[str, Any]:
         "bom": {"type": "array", "items": part},
         "assumptions": {"type": "array", "items": assumption},
         "cautions": {"type": "array", "items": caution},
+        "initial_estimates": {"type": "object", "additionalProperties": _obj(
+            {"verified_id": _STR, "initial": _NUM, "verified": _NUM, "unit": _STR,
+             "basis": _STR,
+             "difference": _NUM})},
+        "summary": _obj({"largest_stress": {"type": "array", "items": {"type": "object"}},
+                         "heat": {"type": "array", "items": {"type": "object"}}}),
     }
     return {
         "$schema": DRAFT, "$id": BASE_ID + "results.schema.json",

@@ -10,6 +10,11 @@ from ..topology import topology
 from ..trace import Ledger
 from ..units import format_quantity as fq
 
+# A library pick states the needs it was chosen for: the sizing figures (initial estimates, or
+# floors raised by an earlier verification pass), not the verified stresses.
+LIBRARY_NOTE = (" (needs from the sizing figures; the verified stresses are in the part "
+                "ratings table)")
+
 
 def fuse_line(ctx: SizingContext, L: Ledger) -> PartChoice:
     """F1: the pick made by the protection stage (a split supply makes it for both rails)."""
@@ -23,7 +28,8 @@ def fuse_line(ctx: SizingContext, L: Ledger) -> PartChoice:
         "(nominal mains), in the live lead",
         part_id=part.id if part is not None else "",
         origin=pick.origin if pick else "sized",
-        reason=pick.reason if pick else "",
+        reason=(pick.reason + (LIBRARY_NOTE if pick.origin == "library" else "")) if pick
+        else "",
         value_ids=("fuse.rating",))
 
 
@@ -36,12 +42,15 @@ def bom_lines(ctx: SizingContext, L: Ledger, reg) -> list[PartChoice]:
         pick = ctx.picks.get(ref)
         part = pick.part if pick else None
         qty = f"{pick.quantity} x " if pick and pick.quantity > 1 else ""
+        reason = pick.reason if pick else ""
+        if pick and pick.origin == "library" and reason:
+            reason += LIBRARY_NOTE
         return PartChoice(
             ref, kind, value_text,
             description=(qty + (part.description or part.id)) if part is not None else generic,
             part_id=part.id if part is not None else "",
             origin=pick.origin if pick else "sized",
-            reason=pick.reason if pick else "",
+            reason=reason,
             value_ids=ids)
 
     topo = topology(ctx.spec.rectifier.topology)

@@ -55,7 +55,8 @@ class Adjustable(ThreeTerminal):
     title = TITLE
     intro = INTRO
     drawing = "adjustable"
-    refs = ("U1", "R2", "R3")
+    adjustable = True
+    refs = ("U1", "R2", "R3", "C2", "C3")
 
     def needs(self, ctx, L):
         record_output(ctx, L)

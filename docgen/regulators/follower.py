@@ -164,9 +164,11 @@ def size_follower(ctx: SizingContext, L: Ledger) -> None:
            "Zener current with no base current (high line, no load)",
            {"v": "reservoir.v_mean_high", "z": "zener.v_min", "R": "zener.r"},
            lambda v, z, R: (v - z) / R)
-    L.calc("zener.p", eq.POWER_VI, r"P_{Z,max}", "W", "Zener dissipation, worst case",
+    L.calc("zener.p", eq.POWER_VI, r"P_{Z,max}", "W",
+           "Zener dissipation, initial estimate (hand formula)",
            {"v": "zener.v_max", "i": "zener.i_z_max"}, lambda v, i: v * i)
-    L.calc("zener.r_p", eq.POWER_V2R, r"P_{R1,max}", "W", "R1 dissipation, worst case",
+    L.calc("zener.r_p", eq.POWER_V2R, r"P_{R1,max}", "W",
+           "R1 dissipation, initial estimate (hand formula)",
            {"a": "reservoir.v_mean_high", "b": "zener.v_min", "R": "zener.r"},
            lambda a, b, R: (a - b) ** 2 / R)
     from .zener_sizing import record_power_deratings, self_heating, zener_rating
@@ -198,7 +200,8 @@ def size_follower(ctx: SizingContext, L: Ledger) -> None:
     # the heat budget first: its junction target bounds the hot V_BE of the output window
     L.calc("q.v_ce_hand", eq.DIFF2, r"V_{CE,hi}", "V", "Collector-emitter voltage at high line",
            {"a": "reservoir.v_mean_high", "b": "output.v_set"}, lambda a, b: a - b)
-    L.calc("q.p_hand", eq.POWER_VI, r"P_Q", "W", "Pass transistor dissipation (high line, hand)",
+    L.calc("q.p_hand", eq.POWER_VI, r"P_Q", "W",
+           "Pass transistor dissipation at high line, initial estimate (hand formula)",
            {"v": "q.v_ce_hand", "i": "output.i_max"}, lambda v, i: v * i)
     size_heat_budget(ctx, L, "q", "Q1", "pass transistor")
     output_window(ctx, L)
@@ -267,7 +270,7 @@ class Follower(Regulator):
     def sample_axes(self, L, rng, n, temp):
         vz_nom, tz = L["zener.v_nom"], L["zener.tol"]
         alpha = L["zener.tempco"] if "zener.tempco" in L else 0.0
-        rise = L["zener.p"] * L["zener.theta_ja"]  # self-heating at the hand worst case
+        rise = L["zener.p"] * L["zener.theta_ja"]  # self-heating at the initial estimate
         v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp + rise - 25.0)
         r = L["zener.r"] * rng.uniform(1 - L["zener.r_tol"], 1 + L["zener.r_tol"], n)
         return v_z, r
@@ -357,7 +360,9 @@ class Follower(Regulator):
             line("Q1", "transistor", f"NPN {v('q.v_ce_max')}",
                  f"NPN power transistor, V_CEO at least {v('q.v_ce_max')}, I_C at least "
                  f"{v('output.i_max')}, h_FE at least {v('q.h_fe')}, SOA covering "
-                 f"{v('q.v_ce_hand')} at {v('output.i_max')}", ("q.v_ce_max",))]
+                 f"{v('q.v_ce_hand')} at {v('output.i_max')} (initial estimate at high line)"
+                 + (f", dissipation {v('engine.transistor_power')} (verified)"
+                    if "engine.transistor_power" in L else ""), ("q.v_ce_max",))]
 
 
 KIND = Follower()

@@ -39,7 +39,9 @@ def size_heat_budget(ctx: SizingContext, L: Ledger, p: str, ref: str, what: str)
         L.calc(f"{p}.p_design", eq.IDENT, r"P_{design}", "W", "Dissipation the heat budget uses",
                {"x": f"{p}.p_hand"}, lambda x: x)
     L.calc(f"{p}.t_j_bare", eq.JUNCTION_BARE, r"T_{J,bare}", "degC",
-           f"Junction temperature of the {what} without a heat sink",
+           f"Junction temperature the {what} would reach without a heat sink (a "
+           "thermal-resistance figure that decides whether a heat sink is needed; above the "
+           "junction limit one is)",
            {"t": "env.t_max", "p": f"{p}.p_design", "r": f"{p}.theta_ja"},
            lambda t, p, r: t + p * r)
     if L[f"{p}.t_j_bare"] <= L[f"{p}.t_j_target"]:

@@ -17,8 +17,9 @@ from .. import equations as eq
 from ..stages.context import Pick, SizingContext
 from ..trace import Ledger
 from ..verify.checks import COMMON_CHECKS, OUTPUT_HIGH, OUTPUT_LOW, OUTPUT_RIPPLE, EngineCheck
-from . import rules
+from . import decoupling, rules
 from .base import Regulator, record_output, regulator_load, series_ripple
+from .decoupling import decoupling_lines, size_decoupling
 from .thermal import junction_limit_check, size_heat_budget, thermal_chain
 
 TITLE = "Three-terminal regulator"
@@ -202,7 +203,8 @@ class ThreeTerminal(Regulator):
         "ripple's harmonics are not modelled.",
     )
     drawing = "three-terminal"
-    refs = ("U1",)
+    adjustable = False
+    refs = ("U1", *decoupling.REFS.values())
     corner_axis_names = ("output setpoint",)
     writes = (*Regulator.writes, "reg.", "margins.t_j_design")
     heat_sink = ("reg", "HS1")
@@ -226,12 +228,17 @@ class ThreeTerminal(Regulator):
     def size(self, ctx, L):
         series_ripple(ctx, L)
         L.calc("reg.p_hand", eq.REG_POWER, r"P_{reg}", "W",
-               "Regulator dissipation at high line, full load (hand)",
+               "Regulator dissipation at high line, full load, initial estimate (hand formula)",
                {"v": "reservoir.v_mean_high", "o": "reg.v_out_min", "i": "output.i_max",
                 "q": "reg.i_q"}, lambda v, o, i, q: (v - o) * i + v * q)
         size_heat_budget(ctx, L, "reg", "U1", "regulator")
         ctx.picks.setdefault("U1", Pick("U1", "regulator", "sized",
                                         reason="typical three-terminal regulator figures"))
+        size_decoupling(L, self.adjustable)
+        for ref in decoupling.REFS.values():
+            ctx.picks[ref] = Pick(ref, "capacitor", "sized", reason=(
+                "capacitance typical of makers' data sheets (from memory); voltage rating: "
+                "standard step at or above the derated need"))
 
     # The output setpoint at its tolerance extremes is a corner axis (held in the point sets'
     # reference-voltage column): the dropout and the dissipation depend on it.
@@ -294,7 +301,7 @@ class ThreeTerminal(Regulator):
         return [line("U1", "regulator", v("reg.v_out"),
                      f"{self.describe(v)}, at least {v('output.i_max')}, dropout at most "
                      f"{v('reg.dropout_max')}, input rating at least {v('reservoir.v_max')}",
-                     ("reg.v_out", "reg.dropout_max"))]
+                     ("reg.v_out", "reg.dropout_max")), *decoupling_lines(line, v)]
 
 
 KIND = ThreeTerminal()

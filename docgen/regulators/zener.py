@@ -86,9 +86,9 @@ class Zener(Regulator):
     needs_intro = zener_sizing.NEEDS_INTRO
     load_model = "the zener as a knee voltage plus dynamic resistance behind its series resistor"
     not_covered = (
-        "The zener's self-heating is taken at its worst-case hand dissipation for every corner "
-        "(conservative); its thermal time constant and the surge on switch-on are not "
-        "modelled.",
+        "The zener's self-heating is taken at its initial-estimate (hand formula) "
+        "dissipation for every corner (conservative); its thermal time constant and the "
+        "surge on switch-on are not modelled.",
         "The zener's tolerance and temperature coefficient are the file's or the part's; the "
         "coefficient's change with current near 5 V is not modelled.",
     )
@@ -125,7 +125,7 @@ class Zener(Regulator):
     def sample_axes(self, L, rng, n, temp):
         vz_nom, tz = L["zener.v_nom"], L["zener.tol"]
         alpha = L["zener.tempco"] if "zener.tempco" in L else 0.0
-        rise = L["zener.p"] * L["zener.theta_ja"]  # self-heating at the hand worst case
+        rise = L["zener.p"] * L["zener.theta_ja"]  # self-heating at the initial estimate
         v_z = vz_nom * rng.uniform(1 - tz, 1 + tz, n) + alpha * vz_nom * (temp + rise - 25.0)
         v_z = v_z - L["zener.r_z"] * L["zener.i_zt"]
         r = L["zener.r"] * rng.uniform(1 - L["zener.r_tol"], 1 + L["zener.r_tol"], n)

@@ -264,12 +264,15 @@ def size_zener(ctx: SizingContext, L: Ledger) -> None:
     L.calc("zener.i_z_max", eq.DIFF2, r"I_{Z,max}", "A",
            "Zener current at high line, least load",
            {"a": "regulator.i_in_max", "b": "output.i_min_worst"}, lambda a, b: a - b)
-    L.calc("zener.p", eq.POWER_VI, r"P_{Z,max}", "W", "Zener dissipation, worst case",
+    L.calc("zener.p", eq.POWER_VI, r"P_{Z,max}", "W",
+           "Zener dissipation, initial estimate (hand formula)",
            {"v": "zener.v_max", "i": "zener.i_z_max"}, lambda v, i: v * i)
-    L.calc("zener.r_p", eq.POWER_V2R, r"P_{R,max}", "W", "Series-resistor dissipation, worst case",
+    L.calc("zener.r_p", eq.POWER_V2R, r"P_{R,max}", "W",
+           "Series-resistor dissipation, initial estimate (hand formula)",
            {"a": "reservoir.v_mean_high", "b": "zener.v_min", "R": "zener.r"},
            lambda a, b, R: (a - b) ** 2 / R)
-    L.calc("output.ripple", eq.DIVIDER, r"V_{r,out}", "V", "Output ripple (high line, worst)",
+    L.calc("output.ripple", eq.DIVIDER, r"V_{r,out}", "V",
+           "Output ripple at high line, initial estimate",
            {"v": "reservoir.ripple_high", "z": "zener.r_z", "R": "zener.r"},
            lambda v, z, R: v * z / (R + z))
 
@@ -436,7 +439,7 @@ def self_heating(L: Ledger) -> None:
     alpha V_Z P_Z R_thJA (common practice), up for a positive coefficient, down for a
     negative one; the extremes and knee voltages of the output window include it."""
     L.calc("zener.dv_self", rules.ZENER_SELF_HEAT, r"\Delta V_{Z,self}", "V",
-           "Zener voltage shift from self-heating at its worst-case dissipation",
+           "Zener voltage shift from self-heating at its initial-estimate dissipation",
            {"a": "zener.tempco", "v": "zener.v_nom", "p": "zener.p", "r": "zener.theta_ja"},
            lambda a, v, p, r: abs(a) * v * p * r)
     L.calc("zener.v_max_hot", rules.ZENER_HIGH_SH, r"V_{Z,max,hot}", "V",

@@ -51,7 +51,7 @@ def bom_rows(design: Design) -> list[dict[str, str]]:
     for part in design.parts:
         for c in (c for c in design.checks if c.ref == part.ref):
             rows.append({"ref": part.ref, "part": part.part_id or part.value_text,
-                         "rating": c.title,
+                         "rating": c.title, "value_id": c.value_id, "limit_id": c.limit_id,
                          "stress": format_quantity(c.value, c.unit),
                          "allowed": format_quantity(c.limit, c.unit),
                          "margin": format_quantity(c.margin, "%", 3), "status": c.status})

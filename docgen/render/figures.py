@@ -75,27 +75,39 @@ def draw_plots(design: Design) -> dict[str, str]:
             {"v_out_hi": v["neg.output.v_upper_limit"].value,
              "v_out_lo": v["neg.output.v_lower_limit"].value}))
     if design.samples:
-        candidates = [
-            {"metric": "v_out_max", "title": "Highest output voltage", "unit": "V",
-             "limits": ["output.v_upper_limit"]},
-            {"metric": "v_out_pp", "title": "Output ripple", "unit": "mV", "scale": 1e3,
-             "limits": ["output.ripple_max"]},
-            {"metric": "p_zener", "title": "Zener dissipation", "unit": "W",
-             "limits": ["zener.p_allowed"]},
-            {"metric": "i_z_min", "title": "Zener current at the trough", "unit": "mA",
-             "scale": 1e3, "limits": ["zener.i_min"]},
-            {"metric": "t_j", "title": "Junction temperature", "unit": "degC",
-             "limits": ["margins.t_j_design"]},
-            {"metric": "v_c_min", "title": "Capacitor trough", "unit": "V",
-             "limits": ["regulator.v_in_min_needed"]},
-            {"metric": "i_sec_rms", "title": "Secondary RMS current", "unit": "mA",
-             "scale": 1e3, "limits": []},
-        ]
-        panels = []
-        for c in candidates:
-            if c["metric"] in design.samples and all(i in v for i in c["limits"]):
-                panels.append({**c, "limits": [v[i].value for i in c["limits"]]})
-        plots["monte_carlo"] = figure_svg(histogram_plot(design.samples, panels[:4]))
+        plots["monte_carlo"] = figure_svg(histogram_plot(design.samples,
+                                                         histogram_panels(design)))
     return plots
 
 
+
+
+# Histogram candidates: metric, title, unit (scale), the limit ids drawn and which side of them
+# passes ("max": at or below, "min": at or above).
+HISTOGRAMS = (
+    {"metric": "v_out_max", "title": "Highest output voltage", "unit": "V",
+     "limits": ["output.v_upper_limit"], "sense": "max"},
+    {"metric": "v_out_pp", "title": "Output ripple", "unit": "mV", "scale": 1e3,
+     "limits": ["output.ripple_max"], "sense": "max"},
+    {"metric": "p_zener", "title": "Zener dissipation", "unit": "W",
+     "limits": ["zener.p_allowed"], "sense": "max"},
+    {"metric": "i_z_min", "title": "Zener current at the trough", "unit": "mA",
+     "scale": 1e3, "limits": ["zener.i_min"], "sense": "min"},
+    {"metric": "t_j", "title": "Junction temperature", "unit": "degC",
+     "limits": ["margins.t_j_design"], "sense": "max"},
+    {"metric": "v_c_min", "title": "Capacitor trough", "unit": "V",
+     "limits": ["regulator.v_in_min_needed"], "sense": "min"},
+    {"metric": "i_sec_rms", "title": "Secondary RMS current", "unit": "mA",
+     "scale": 1e3, "limits": [], "sense": "max"},
+)
+
+
+def histogram_panels(design: Design) -> list[dict]:
+    """The Monte Carlo panels this design shows (at most four), limits as numbers."""
+    v = design.values
+    panels = []
+    for c in HISTOGRAMS:
+        if c["metric"] in design.samples and all(i in v for i in c["limits"]):
+            panels.append({**c, "limit_ids": list(c["limits"]),
+                           "limits": [v[i].value for i in c["limits"]]})
+    return panels[:4]

@@ -11,10 +11,12 @@ from jinja2 import pass_context
 
 from ..design import Design
 from ..trace import TracedValue
+from ..verify.stresses import pairs as initial_vs_verified
 from . import filters
 from .bom import bom_rows
 from .mathsvg import formula_data_uri
 from .netlist import netlist
+from .summary import summary_notes
 
 
 @lru_cache(maxsize=1)
@@ -112,14 +114,35 @@ def traceability(design: Design) -> list[dict[str, Any]]:
 FIGURES = {
     "schematic": ("schematic", "Circuit drawn from the design: designators, values and library "
                   "part ids as chosen."),
-    "waveforms_trough": ("waveforms", "Trough corner: low line, full load, capacitance at its low "
-                         "tolerance, zener high, resistor high. Secondary voltage and current, "
+    "waveforms_trough": ("waveforms", "Trough corner: {corner}. Secondary voltage and current, "
                          "capacitor voltage, one diode's current pulses, output voltage."),
-    "waveforms_nominal": ("waveforms", "Nominal mains, full load, nominal-side corner."),
-    "waveforms_trough_neg": ("waveforms", "Negative rail at its trough corner, shown as "
-                             "magnitudes."),
+    "waveforms_nominal": ("waveforms", "Nominal corner: {corner}."),
+    "waveforms_trough_neg": ("waveforms", "Negative rail at its trough corner ({corner}), shown "
+                             "as magnitudes."),
     "monte_carlo": ("monte-carlo", "Monte Carlo distributions; dashed lines are the limits."),
 }
+# The waveform each figure shows (its corner names the caption's).
+FIGURE_WAVES = {"waveforms_trough": "trough", "waveforms_nominal": "nominal",
+                "waveforms_trough_neg": "neg_trough"}
+# Columns of the corner table: engine metric, symbol, unit; a column is shown only when the
+# kind has the figure at some corner (no empty zener columns for a series regulator).
+CORNER_COLUMNS = (
+    ("v_c_min", r"V_{C,min}", "V"), ("v_out_min", r"V_{out,min}", "V"),
+    ("v_out_max", r"V_{out,max}", "V"), ("v_out_pp", r"V_{r,out}", "V"),
+    ("i_z_min", r"I_{Z,min}", "A"), ("p_zener", r"P_Z", "W"), ("p_r_series", r"P_R", "W"),
+    ("i_sec_rms", r"I_{sec,rms}", "A"), ("i_c_rms", r"I_{C,rms}", "A"),
+)
+
+
+def _caption(design: Design, name: str, text: str) -> str:
+    wave = design.waveforms.get(FIGURE_WAVES.get(name, ""), {})
+    return text.format(corner=wave.get("corner", "")) if "{corner}" in text else text
+
+
+def corner_columns(design: Design) -> list[dict[str, str]]:
+    return [{"key": k, "symbol": sym, "unit": unit} for k, sym, unit in CORNER_COLUMNS
+            if any(r.get(k) is not None for r in design.corners)]
+
 
 MC_QUANTITIES = {
     "v_out_mean": ("Output voltage (mean)", "V"),
@@ -137,8 +160,10 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
     spec = design.requirements
     values: list[TracedValue] = list(design.values.values())
     by_stage: dict[str, list[dict[str, Any]]] = {}
+    verified = initial_vs_verified(design.values)
     for v in values:
         item = {
+            "verified": verified.get(v.id),
             "v": v,
             "anchor": filters.anchor(v.id),
             "computed": bool(v.latex),
@@ -155,9 +180,10 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
                            key=lambda c: ({"fail": 0, "warn": 1, "pass": 2}[c.status], c.margin))
     sources = sorted({e.source for e in design.equations.values()})
     key_ids = ["transformer.v_rated", "transformer.va", "reservoir.c", "reservoir.v_rating",
-               "zener.r", "zener.p_rating", "engine.output_ripple", "engine.zener_power",
-               "engine.resistor_power", "engine.transformer_current", "engine.va_nominal",
-               "engine.efficiency", "reservoir.life"]
+               "zener.r", "zener.p_rating", "engine.output_ripple", "engine.transistor_power",
+               "engine.regulator_power", "engine.zener_power", "engine.resistor_power",
+               "engine.transformer_current", "engine.va_nominal", "engine.efficiency",
+               "reservoir.life"]
     return {
         "d": design,
         "spec": spec,
@@ -169,6 +195,7 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
         "checks_sorted": checks_sorted,
         "attention": [c for c in checks_sorted if c.status != "pass"],
         "key_values": [design.values[k] for k in key_ids if k in design.values],
+        "summary_notes": summary_notes(design),
         "parts": design.parts,
         "cautions": design.cautions,
         "assumptions": design.assumptions,
@@ -176,9 +203,11 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
         "equations": sorted(design.equations.values(), key=lambda e: e.id),
         "trace_rows": traceability(design),
         "figures": [
-            {"src": _svg_uri(plots[name]), "caption": caption, "section": section}
+            {"src": _svg_uri(plots[name]), "caption": _caption(design, name, caption),
+             "section": section}
             for name, (section, caption) in FIGURES.items() if name in plots
         ],
+        "corner_columns": corner_columns(design),
         "bom_rows": bom_rows(design),
         "netlist": netlist(design),
         "corners": design.corners,

@@ -74,6 +74,10 @@ def _regulator(style: str, refs: list[str], vin: str, out: str, negative: bool) 
         rows.append((u[0], f"input: {vin}; adjust: {adj}; output: {out}"))
         if len(r) >= 2:
             rows += [(r[0], f"{out} to {adj}"), (r[1], f"{adj} to 0 V")]
+    c = by_letter.get("C", [])
+    if style in ("three-terminal", "adjustable") and u and len(c) >= 2:
+        rows += [(c[0], f"{vin} to 0 V (regulator input)"),
+                 (c[1], f"{out} to 0 V (regulator output)")]
     return rows
 
 
@@ -105,8 +109,9 @@ def netlist(design: Design) -> list[Connection]:
     negative_refs = set(REF_MAP.values()) - SHARED
     for out in spec.output:
         negative = out.polarity == "negative"
+        reservoirs = ("C1", "C2") if split else ("C1",)
         refs = [r for r in parts if r not in SHARED and not r.startswith("HS")
-                and r not in ("C1", "C2") and ((r in negative_refs) == negative or not split)]
+                and r not in reservoirs and ((r in negative_refs) == negative or not split)]
         node = "OUT-" if negative else ("OUT+" if split else "OUT")
         vin = vneg if negative else vc
         style = regulator(out.regulator).drawing

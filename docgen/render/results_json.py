@@ -9,6 +9,8 @@ from pathlib import Path
 from typing import Any
 
 from ..design import Design
+from ..verify.stresses import pairs as initial_vs_verified
+from .summary import summary_facts
 
 # Display units the ledger carries beside numbers stored in SI: the unit results.json names is
 # the one the stored number is in; the display unit is what the document shows.
@@ -90,6 +92,8 @@ def results_dict(design: Design) -> dict[str, Any]:
         "bom": [asdict(p) for p in design.parts],
         "assumptions": [asdict(a) for a in design.assumptions],
         "cautions": [asdict(c) for c in design.cautions],
+        "initial_estimates": initial_vs_verified(design.values),
+        "summary": summary_facts(design),
     }
 
 

@@ -92,7 +92,8 @@ class SizingContext:
         if value <= 0 or not math.isfinite(value):
             return None
         L.given(value_id, symbol, value, unit, title,
-                source="raised after the engine verification: " + self.floors.reasons[name])
+                source="raised after an earlier verification pass, where "
+                + self.floors.reasons[name])
         return value_id
 
 

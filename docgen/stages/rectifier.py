@@ -47,23 +47,23 @@ def size_rectifier(ctx: SizingContext, L: Ledger) -> None:
             return i * (1 + 2 * math.pi * math.sqrt(v / (2 * r)))
     peak_eq = topo.peak_equation
     L.calc("rect.i_peak_low", peak_eq, r"I_{D,pk,lo}", "A",
-           "Repetitive peak diode current (low line, full load)",
+           "Repetitive peak diode current, initial estimate (low line, full load)",
            {"i": "regulator.i_trough", "v": "reservoir.v_pk_low", "r": "reservoir.ripple_low"},
            peak)
     # A shunt regulator draws its largest current at high line.
     L.calc("rect.i_peak_high", peak_eq, r"I_{D,pk,hi}", "A",
-           "Repetitive peak diode current (high line)",
+           "Repetitive peak diode current, initial estimate (high line)",
            {"i": "regulator.i_in_max", "v": "reservoir.v_pk_high", "r": "reservoir.ripple_high"},
            peak)
     L.calc("rect.i_peak", eq.MAX2, r"I_{D,pk}", "A",
-           "Repetitive peak diode current (hand formula, worst line)",
+           "Repetitive peak diode current, initial estimate (hand formula, the higher line)",
            {"a": "rect.i_peak_low", "b": "rect.i_peak_high"}, lambda a, b: max(a, b))
     L.calc("rect.conduction_angle", eq.CONDUCTION_ANGLE, r"\theta", "rad",
-           "Conduction angle per pulse (low line, full load)",
+           "Conduction angle per pulse, initial estimate (low line, full load)",
            {"r": "reservoir.ripple_low", "v": "reservoir.v_pk_low"},
            lambda r, v: math.acos(1 - r / v))
     L.calc("rect.i_surge_est", eq.SURGE_ESTIMATE, r"I_{surge,est}", "A",
-           "Switch-on surge estimate", {"v": "reservoir.v_max", "r": "transformer.r_w"},
+           "Switch-on surge, initial estimate", {"v": "reservoir.v_max", "r": "transformer.r_w"},
            lambda v, r: v / r)
     L.given("margins.diode_voltage", r"k_{D,V}", m.diode_voltage_derating, "%",
             "Diode reverse-voltage derating",

@@ -42,13 +42,17 @@ def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[
             raise InfeasibleDesign(
                 f"the waveform engine did not converge at any corner for {chk.title.lower()}; "
                 "no number is reported that was not converged to")
+        where = cr.corners.name[k]
+        if not chk.nominal_line_only:
+            value, where = worse_sample(cr, chk.metric, chk.sense, value, where)
         vid = f"engine.{chk.id.split('.', 1)[1]}"
         L.measured(vid, eq.ENGINE, chk.symbol, value, chk.unit,
                    f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)",
-                   inputs, cr.corners.name[k])
+                   inputs, where)
         checks.append(make_check(L, chk.id, chk.title, vid, chk.limit_id, chk.sense,
-                                 cr.corners.name[k], w, ref=designator(spec, chk.ref),
+                                 where, w, ref=designator(spec, chk.ref),
                                  requirement=chk.requirement))
+    verified_stresses(L, cr)
     # A corner the engine could not solve is a failing check of its own, never a number.
     bad = [cr.corners.name[k] for k in range(cr.n_corners) if not cr.converged[k]]
     L.given("engine.corners_not_converged", r"N_{nc}", float(len(bad)), "",
@@ -86,6 +90,50 @@ def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[
            {"o": "engine.p_out_nominal", "i": "engine.p_in_nominal"}, lambda o, i: o / i)
     checks += hand_checks(ctx, L, cr, reg)
     return checks
+
+
+def worse_sample(cr: CornerResult, metric: str, sense: str, value: float, where: str
+                 ) -> tuple[float, str]:
+    """The worst corner's figure, or a Monte Carlo sample's where one is worse: the verified
+    figure is the worst over the corners and the samples."""
+    if cr.samples is None or metric not in cr.metrics:
+        return value, where
+    s = np.asarray(cr.sample_metric(metric), dtype=float)
+    conv = np.asarray(cr.converged, dtype=bool)
+    if len(conv) == cr.n_corners + len(s):
+        s = np.where(conv[cr.n_corners:], s, np.nan)
+    if not np.isfinite(s).any():
+        return value, where
+    j = int(np.nanargmax(s) if sense == "max" else np.nanargmin(s))
+    worse = s[j] > value if sense == "max" else s[j] < value
+    if worse:
+        return float(s[j]), f"Monte Carlo sample {j + 1} of {len(s)}"
+    return value, where
+
+
+# Engine figures of stresses that no check reads but the document states beside their initial
+# estimates (docgen.verify.stresses): metric, value id, symbol, unit, title, sense.
+VERIFIED_STRESSES = (
+    ("i_d_peak", "engine.i_d_peak", r"I_{D,pk}", "A", "Repetitive peak diode current", "max"),
+    ("conduction_angle", "engine.conduction_min", r"\theta_{min}", "rad",
+     "Shortest conduction angle per pulse", "min"),
+    ("p_reg", "engine.regulator_power", r"P_{reg}", "W", "Regulator dissipation", "max"),
+    ("p_q", "engine.transistor_power", r"P_Q", "W", "Pass-transistor dissipation", "max"),
+)
+
+
+def verified_stresses(L: Ledger, cr: CornerResult) -> None:
+    """The worst over corners and samples of each stress in VERIFIED_STRESSES the kind has."""
+    for metric, vid, sym, unit, title, sense in VERIFIED_STRESSES:
+        if metric not in cr.metrics:
+            continue
+        values = np.asarray(cr.corner_metric(metric), dtype=float)
+        if not np.isfinite(values).any():
+            continue
+        k = int(np.nanargmax(values) if sense == "max" else np.nanargmin(values))
+        value, where = worse_sample(cr, metric, sense, float(values[k]), cr.corners.name[k])
+        L.measured(vid, eq.ENGINE, sym, value, unit, f"{title} (engine, worst corner)",
+                   model_inputs(L), where)
 
 
 def hand_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[Check]:

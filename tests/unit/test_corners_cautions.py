@@ -11,7 +11,7 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from docgen.cautions import STANDING, triggered_cautions
+from docgen.cautions import STANDING, rating_cautions, triggered_cautions
 from docgen.design import Check
 from docgen.regulators import regulator
 from docgen.topology import topology as topology_record
@@ -114,5 +114,21 @@ def test_triggered_cautions_at_the_standards_limits(v_dc, v_sec, energy, topolog
 def test_near_rating_caution_names_the_part():
     got = triggered_cautions(10.0, 9.0, 1.0, [_warn("Q1"), _warn("")],
                              topology=topology_record("bridge"))
-    assert [c.id for c in got] == ["caution.near_rating.check.x"]
+    assert [c.id for c in got] == ["caution.near_rating.Q1"]
     assert "Q1" in got[0].title and "3.0 %" in got[0].text
+
+
+def test_one_rating_caution_per_part_and_none_left_out():
+    """Two close checks on one part give one caution naming both; a part that fails (less
+    margin than a warning) gets one too, worded as beyond its rating (common practice)."""
+    import dataclasses
+
+    two = dataclasses.replace(_warn("U1"), id="check.y", title="Other <= rating", margin=0.01)
+    fail = dataclasses.replace(_warn("U2"), id="check.z", status="fail", margin=-0.2)
+    ok = dataclasses.replace(_warn("U3"), id="check.w", status="pass", margin=0.5)
+    got = rating_cautions([_warn("U1"), two, fail, ok])
+    assert [c.id for c in got] == ["caution.near_rating.U1", "caution.near_rating.U2"]
+    u1, u2 = got
+    assert u1.text.index("1.0 %") < u1.text.index("3.0 %")  # least margin first
+    assert u1.triggered_by == "check.y, check.x"
+    assert "beyond" in u2.title and "exceeded by 20.0 %" in u2.text

@@ -70,6 +70,7 @@ def test_bom_rows_by_hand():
     rows = bom_rows(hand_design())
     assert rows == [
         {"ref": "C1", "part": "2200 uF 35 V", "rating": "Capacitor ripple current <= rating",
+         "value_id": "engine.cap_ripple_current", "limit_id": "reservoir.i_ripple_rating",
          "stress": "500 mA", "allowed": "1 A", "margin": "50 %", "status": "pass"},
     ]
     # bom.csv: one row per part, read back as a spreadsheet would (byte-order mark first)
