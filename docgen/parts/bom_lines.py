@@ -61,8 +61,8 @@ def bom_lines(ctx: SizingContext, L: Ledger, reg) -> list[PartChoice]:
         line("C1", "capacitor", f"{v('reservoir.c')} {v('reservoir.v_rating')}",
              f"aluminium electrolytic capacitor, {v('reservoir.c')} (tolerance "
              f"{v('reservoir.tol')}), at least {v('reservoir.v_rating')}"
-             + (f", ripple current at least {v('engine.cap_ripple_current')}"
-                if "engine.cap_ripple_current" in L else ""),
+             + (f", ripple current at least {v('engine.cap_ripple_current')} at "
+                f"{v('mains.ripple_freq')}" if "engine.cap_ripple_current" in L else ""),
              ("reservoir.c", "reservoir.v_rating")),
     ]
     lines += reg.bom_lines(ctx, L, line, v)
