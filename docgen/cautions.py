@@ -6,6 +6,8 @@ safety approval: every caution defers to local codes and a qualified person.
 
 from __future__ import annotations
 
+import math
+
 from .design import Check
 from .topology import Topology
 from .trace import Caution
@@ -59,6 +61,8 @@ def triggered_cautions(
     v_dc_max: float, v_sec_nl_max: float, stored_energy: float, checks: list[Check],
     *, topology: Topology, dual_frequency: tuple[float, float] | None = None,
 ) -> list[Caution]:
+    """Cautions this design triggers. ``v_sec_nl_max`` is the whole secondary winding, end to
+    end (both halves of a center tap), RMS at high line and no load."""
     out: list[Caution] = []
     if topology.caution is not None:
         cid, title, text, source = topology.caution
@@ -81,12 +85,16 @@ def triggered_cautions(
             "IEC 62368-1 ES1 limit 60 V DC (class limit from memory)",
             triggered_by="reservoir.v_max"))
     if v_sec_nl_max > SELV_AC_LIMIT:
+        whole = ("the whole center-tapped winding, end to end across both halves,"
+                 if topology.center_tapped else "the secondary winding")
         out.append(Caution(
             "caution.secondary_not_selv", "Secondary above the safety-isolating limit",
-            f"The no-load secondary reaches {v_sec_nl_max:.0f} V RMS at high line, above the "
-            f"{SELV_AC_LIMIT:.0f} V of a safety isolating transformer's extra-low output.",
+            f"At high line and no load {whole} reaches {v_sec_nl_max:.0f} V RMS "
+            f"({v_sec_nl_max * math.sqrt(2):.0f} V peak), above the {SELV_AC_LIMIT:.0f} V RMS "
+            f"({SELV_AC_LIMIT * math.sqrt(2):.0f} V peak) of a safety isolating transformer's "
+            "extra-low output: treat the winding, its wiring and the rectifier as hazardous.",
             "IEC 61558-2-6:2021 scope (50 V AC no-load)",
-            triggered_by="transformer.v_high_nl"))
+            triggered_by="transformer.v_winding_high_nl"))
     if stored_energy > STORED_ENERGY_LIMIT:
         out.append(Caution(
             "caution.stored_energy", "Stored energy in the reservoir",

@@ -133,6 +133,13 @@ CAP_PEAK_LOW = _eq(
     r"\sqrt{2} \cdot $v - 2 \cdot $d", {"v": r"V_{sec}", "d": r"V_F"},
     SEDRA_SMITH + "; bridge loses two diode drops",
 )
+XFMR_AMBIENT_DERATING = _eq(
+    "transformer.ambient_derating", "Secondary current derating for a hotter ambient",
+    r"\min\left(1,\ \sqrt{\frac{$c - $a}{$c - $r}}\right)",
+    {"c": r"T_{class}", "a": r"T_{A,max}", "r": r"T_{A,rated}"},
+    "common practice [CP-XFMR-AMBIENT]: the winding's rise follows its copper loss I^2 R; the "
+    "rated load at the rated ambient is taken to reach the class temperature (IEC 60085 "
+    "classes, from memory); core loss left out")
 RATED_CURRENT = _eq("transformer.rated_current", "Rated secondary current", r"\frac{$s}{$v}",
                     {"s": "S", "v": r"V_{sec}"}, DEF)
 
@@ -149,6 +156,11 @@ RIPPLE = _eq(
     r"\frac{$i}{$f \cdot $c}", {"i": r"I_{DC}", "f": r"f_r", "c": "C"},
     SEDRA_SMITH + ": small-ripple approximation",
 )
+RIPPLE_RATING_AT_FREQ = _eq(
+    "reservoir.ripple_rating_at_frequency", "Ripple-current rating at the ripple frequency",
+    r"$i \cdot \frac{$a}{$b}", {"i": r"I_{C,q}", "a": r"M(f_r)", "b": r"M(f_q)"},
+    "makers' frequency multipliers for aluminium electrolytics (common practice; typical "
+    "table from memory, [CP-RIPPLE-FREQ])")
 DERATED_NEED = _eq("derating.rating_needed", "Rating needed after derating", r"\frac{$x}{$k}",
                    {"x": "x", "k": r"k_{der}"}, COMMON)
 

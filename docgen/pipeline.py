@@ -130,7 +130,7 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
     checks.sort(key=lambda c: ALL_CHECK_IDS.index(c.id) if c.id in ALL_CHECK_IDS else 100)
     topo = topology(spec.rectifier.topology)
     cautions = list(STANDING) + triggered_cautions(
-        L["reservoir.v_max"], L["transformer.v_high_nl"], L["reservoir.energy"], checks,
+        L["reservoir.v_max"], L["transformer.v_winding_high_nl"], L["reservoir.energy"], checks,
         topology=topo,
         dual_frequency=((spec.mains.frequency, spec.mains.also_frequency)
                         if spec.mains.also_frequency else None))

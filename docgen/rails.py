@@ -58,19 +58,26 @@ def _shared_transformer(spec: Requirements, a: Design, b: Design, library):
     v = max(a.values["transformer.v_rated"].value, b.values["transformer.v_rated"].value)
     i_tot = math.hypot(a.values["engine.transformer_current"].value,
                        b.values["engine.transformer_current"].value)
-    va_need = max(v * i_tot / (1 - band), a.values["transformer.va"].value,
-                  b.values["transformer.va"].value)
+    # VA needed at the highest ambient (derated); a standard step is divided by the default
+    # derating, a library part's own derating applies in the selection
+    va_need = max(v * i_tot / (1 - band), a.values["transformer.va_allowed"].value,
+                  b.values["transformer.va_allowed"].value)
     if library is not None:
         from .parts.select import select_transformer
 
         sel = select_transformer(library.transformers, secondary_voltage=v / 2, va=va_need,
-                                 center_tapped=True, primary_voltage=spec.mains.nominal)
+                                 center_tapped=True, primary_voltage=spec.mains.nominal,
+                                 ambient_c=spec.environment.ambient_max)
         if sel.part is None:
             raise InfeasibleDesign(f"no transformer in the parts library can feed both rails: "
                                    f"{sel.reason}")
         return t.model_copy(update={"part": sel.part.id})
+    from .parts import ambient
+
+    k = ambient.ambient_factor(spec.environment.ambient_max, ambient.DEFAULT_RATED_AMBIENT,
+                               ambient.CLASS_TEMPERATURE[ambient.DEFAULT_CLASS])
     try:
-        va = standards.next_at_or_above(va_need, standards.TRANSFORMER_VA)
+        va = standards.next_at_or_above(va_need / k, standards.TRANSFORMER_VA)
     except standards.NoStandardValue:
         raise InfeasibleDesign(f"both rails together need {va_need:.0f} VA, above the largest "
                                "standard transformer") from None
@@ -148,11 +155,12 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
     L.calc("split.i_sec_rms", eq.RSS, r"I_{half,rms}", "A",
            "Half-winding RMS current, both rails", {"a": "split.i_pos", "b": "split.i_neg"},
            lambda a, b: math.hypot(a, b))
-    L.given("split.i_rated", r"I_{rated}", a.values["transformer.i_rated"].value, "A",
-            "Rated half-winding current of the shared transformer",
-            source="transformer rating (VA / whole winding voltage)")
+    L.given("split.i_rated", r"I_{rated}", a.values["transformer.i_allowed"].value, "A",
+            "Rated half-winding current of the shared transformer, derated for the ambient",
+            source="transformer rating (VA / whole winding voltage) times the ambient derating")
     combined = make_check(L, "check.transformer_current", "Half-winding RMS current (both "
-                          "rails) <= rated current", "split.i_sec_rms", "split.i_rated", "max",
+                          "rails) <= rated current derated for the ambient",
+                          "split.i_sec_rms", "split.i_rated", "max",
                           "each rail at its worst corner", spec.margins.warn_band,
                           ref="T1")
     # One fuse in the shared primary, sized from both rails.

@@ -57,16 +57,21 @@ def bom_lines(ctx: SizingContext, L: Ledger, reg) -> list[PartChoice]:
     lines = [
         line("T1", "transformer", f"{v('transformer.v_rated')} {v('transformer.va')}",
              f"mains transformer, secondary {v('transformer.v_rated')} RMS at rated load, "
-             f"at least {v('transformer.va')}, regulation at most {v('transformer.regulation')}",
-             ("transformer.v_rated", "transformer.va", "transformer.regulation")),
+             f"at least {v('transformer.va')} at {v('transformer.t_amb_rated')} ambient"
+             + ("" if L["transformer.k_amb"] >= 1 else
+                f" (derated to {v('transformer.va_allowed')} at {v('env.t_max')}, insulation "
+                f"limit {v('transformer.t_class')})")
+             + f", regulation at most {v('transformer.regulation')}",
+             ("transformer.v_rated", "transformer.va", "transformer.va_allowed",
+              "transformer.regulation")),
         line(topo.designator, "rectifier", f"{v('rect.v_rrm')} {v('rect.i_f_rating')}",
              topo.bom_text.format(v=v('rect.v_rrm'), i=v('rect.i_f_rating'), s=v('rect.i_fsm')),
              ("rect.v_rrm", "rect.i_f_rating", "rect.i_fsm")),
         line("C1", "capacitor", f"{v('reservoir.c')} {v('reservoir.v_rating')}",
              f"aluminium electrolytic capacitor, {v('reservoir.c')} (tolerance "
              f"{v('reservoir.tol')}), at least {v('reservoir.v_rating')}"
-             + (f", ripple current at least {v('engine.cap_ripple_current')}"
-                if "engine.cap_ripple_current" in L else ""),
+             + (f", ripple current at least {v('engine.cap_ripple_current')} at "
+                f"{v('mains.ripple_freq')}" if "engine.cap_ripple_current" in L else ""),
              ("reservoir.c", "reservoir.v_rating")),
     ]
     lines += reg.bom_lines(ctx, L, line, v)

@@ -19,6 +19,9 @@ File format (schema 1)
     voltage = "35 V"
     ripple_current = "2.2 A"
     ripple_temperature = "105 degC"
+    ripple_frequency = "120 Hz"   # optional: frequency of that rating (100/120 Hz if absent)
+    # optional: the maker's frequency multipliers (a typical table is used when absent)
+    ripple_multipliers = { "50 Hz" = 0.8, "120 Hz" = 1.0, "1 kHz" = 1.35, "10 kHz" = 1.5 }
     tan_delta = 0.12              # or esr = "40 mohm"
     life = "5000 h"
     life_temperature = "105 degC"
@@ -37,7 +40,18 @@ Conventions that matter for the numbers:
   primary voltage; for a center-tapped part it is the whole winding (2 x 12 V -> "24 V").
   ``regulation`` is (V_no_load - V_full_load) / V_full_load, the full-load convention most
   makers use ([CP-REGULATION], docs/references.md) - a figure divided by V_no_load must be
-  converted.
+  converted. ``rated_ambient`` (optional, e.g. "40 degC") is the ambient the VA rating holds
+  at, 25 degC when absent (IEC 61558-1 marks t_a only when it differs; from memory), and
+  ``insulation_class`` (optional: "A", "E", "B", "F" or "H", IEC 60085) its thermal class,
+  class A (105 degC) when absent. Above the rated ambient the secondary current is derated
+  to I_rated sqrt((T_class - T_A) / (T_class - T_rated)) ([CP-XFMR-AMBIENT]).
+* ``capacitor.ripple_current`` is quoted at ``ripple_temperature`` and ``ripple_frequency``
+  (100/120 Hz when absent). It is converted to the design's ripple frequency (2 f full-wave,
+  f half-wave) by the ratio of frequency multipliers, M(f_ripple) / M(f_quoted):
+  ``ripple_multipliers`` (an inline table of frequency = multiplier, straight lines on a
+  logarithmic frequency axis between its points, flat beyond them) when given, else a typical
+  table of aluminium electrolytics: 0.8 at 50/60 Hz, 1.0 at 100/120 Hz, 1.35 at 1 kHz, 1.5 at
+  10 kHz and above (from memory, typical of makers' data; [CP-RIPPLE-FREQ]).
 * ``bridge.i_f_avg`` is the bridge's rated average *output* current, as bridge makers quote it;
   ``diode.i_f_avg`` is the rating of one diode. ``i_fsm`` is the single half-sine surge peak.
 * ``zener.power`` is the rated power up to ``power_reference_temperature`` of the

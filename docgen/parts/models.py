@@ -10,7 +10,7 @@ from typing import Any, ClassVar
 from pydantic import BaseModel, ConfigDict, Field, model_validator
 
 from ..units import format_quantity
-from . import eseries
+from . import ambient, eseries, ripple
 from .readers import (
     ApparentPower,
     Capacitance,
@@ -21,6 +21,7 @@ from .readers import (
     Flag,
     Frequency,
     Length,
+    MultiplierTable,
     Number,
     PartId,
     Power,
@@ -83,6 +84,9 @@ class Transformer(_PartBase):
     regulation: Regulation | None = None  # (V_NL - V_FL) / V_FL at full load
     winding_resistance: Resistance | None = None  # secondary (whole winding), primary referred in
     primary_voltage: Voltage | None = None
+    # ambient the VA rating holds at (25 degC when absent) and the insulation's thermal class
+    rated_ambient_c: Temperature | None = Field(None, alias="rated_ambient")
+    insulation_class: _choice(*ambient.CLASSES, case=False) | None = None
     size: Text = ""
 
     @classmethod
@@ -101,6 +105,21 @@ class Transformer(_PartBase):
     def no_load_voltage(self) -> float | None:
         """Secondary RMS voltage at no load, V_FL * (1 + regulation), or None if not stated."""
         return None if self.regulation is None else self.secondary_voltage * (1 + self.regulation)
+
+    @property
+    def rated_ambient(self) -> float:
+        """Ambient of the VA rating, degC (IEC 61558-1's 25 degC when not stated)."""
+        return (self.rated_ambient_c if self.rated_ambient_c is not None
+                else ambient.DEFAULT_RATED_AMBIENT)
+
+    @property
+    def class_temperature(self) -> float:
+        """Winding temperature limit of the insulation class, degC (class A when not stated)."""
+        return ambient.CLASS_TEMPERATURE[self.insulation_class or ambient.DEFAULT_CLASS]
+
+    def ambient_factor(self, t_ambient: float) -> float:
+        """Allowed secondary current per rated current at ``t_ambient`` (docgen.parts.ambient)."""
+        return ambient.ambient_factor(t_ambient, self.rated_ambient, self.class_temperature)
 
     @property
     def half_voltage(self) -> float:
@@ -137,7 +156,8 @@ class Capacitor(_PartBase):
     voltage: Voltage
     ripple_current: Current  # RMS, at ripple_temperature_c and ripple_frequency
     ripple_temperature_c: Temperature = Field(alias="ripple_temperature")
-    ripple_frequency: Frequency | None = None
+    ripple_frequency: Frequency | None = None  # of the quoted rating; 100/120 Hz when absent
+    ripple_multipliers: MultiplierTable | None = None  # the maker's table; typical when absent
     esr: Resistance | None = None
     tan_delta: TanDelta | None = None
     life: Time
@@ -150,6 +170,22 @@ class Capacitor(_PartBase):
         if "esr" not in given and "tan_delta" not in given:
             return ['give esr (e.g. "40 mohm") or tan_delta (e.g. 0.12), or both']
         return []
+
+    @property
+    def quoted_frequency(self) -> float:
+        """Frequency of the quoted ripple rating, Hz (100/120 Hz when the file does not say)."""
+        return (self.ripple_frequency if self.ripple_frequency is not None
+                else ripple.DEFAULT_QUOTED_FREQUENCY)
+
+    def ripple_multiplier(self, frequency: float) -> float:
+        """The frequency multiplier at ``frequency`` (Hz): the part's table, else the typical
+        one (docgen.parts.ripple; from memory, typical of makers' data)."""
+        return ripple.multiplier(frequency, self.ripple_multipliers or ripple.TYPICAL_MULTIPLIERS)
+
+    def ripple_current_at(self, frequency: float) -> float:
+        """Ripple-current rating at ``frequency`` (Hz): I_quoted M(f) / M(f_quoted)."""
+        return (self.ripple_current * self.ripple_multiplier(frequency)
+                / self.ripple_multiplier(self.quoted_frequency))
 
     def esr_at(self, frequency: float) -> float:
         """ESR in ohm at ``frequency`` (Hz): the stated esr, else tan_delta / (2 pi f C).

@@ -191,6 +191,34 @@ class _Choice(_Reader):
         raise ValueError(f"expected {self.expects}, got {_show_raw(raw)}")
 
 
+class _MultiplierTable(_Reader):
+    """A frequency multiplier table: an inline table of frequency text -> plain multiplier,
+    such as {"50 Hz" = 0.8, "120 Hz" = 1.0, "10 kHz" = 1.4}; kept as sorted (Hz, factor)."""
+
+    expects = '{"50 Hz" = 0.8, "120 Hz" = 1.0, "10 kHz" = 1.4} (frequency = multiplier)'
+
+    def __call__(self, raw: Any) -> tuple[tuple[float, float], ...]:
+        if not isinstance(raw, dict) or not raw:
+            raise ValueError(f"expected a table {self.expects}, got {_show_raw(raw)}")
+        points: dict[float, float] = {}
+        for key, factor in raw.items():
+            try:
+                freq = parse_quantity(key, "frequency")
+            except ValueError:
+                raise ValueError(f"expected frequency keys such as \"120 Hz\", got "
+                                 f"{show_raw(key)}") from None
+            if not (math.isfinite(freq) and freq > 0):
+                raise ValueError(f"expected a positive frequency key, got {show_raw(key)}")
+            if isinstance(factor, bool) or not isinstance(factor, (int, float)) or not (
+                    math.isfinite(factor) and 0 < factor <= 10):
+                raise ValueError(f"expected a plain multiplier between 0 and 10 for "
+                                 f"{show_raw(key)}, got {_show_raw(factor)}")
+            if freq in points:
+                raise ValueError(f"frequency {show_raw(key)} is given twice")
+            points[freq] = float(factor)
+        return tuple(sorted(points.items()))
+
+
 def _show_raw(raw: Any) -> str:
     if isinstance(raw, bool):
         return "true" if raw else "false"
@@ -226,6 +254,7 @@ Price = Annotated[float, BeforeValidator(_Price())]
 Text = Annotated[str, BeforeValidator(_Text())]
 PartId = Annotated[str, BeforeValidator(_Text(part_id=True))]
 Flag = Annotated[bool, BeforeValidator(_Flag())]
+MultiplierTable = Annotated[tuple[tuple[float, float], ...], BeforeValidator(_MultiplierTable())]
 SeriesName = Annotated[str, BeforeValidator(_Choice(*eseries.SERIES, case=False))]
 
 

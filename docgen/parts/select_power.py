@@ -36,6 +36,7 @@ def select_transformer(
     secondary_voltage_max: float | None = None,
     primary_voltage: float | None = None,
     va_derating: float = 1.0,
+    ambient_c: float | None = None,
 ) -> Selection:
     """Mains transformer.
 
@@ -52,6 +53,9 @@ def select_transformer(
         Upper limit on the same voltage (a higher secondary wastes power in the regulator).
     primary_voltage : float, optional
         Mains voltage, V; parts that state a primary voltage must match it within 2 %.
+    ambient_c : float, optional
+        Highest ambient, degC: each part's VA counts as derated to it
+        (``Transformer.ambient_factor``: its rated ambient and insulation class).
     """
     _check_positive(secondary_voltage=secondary_voltage, va=va,
                     secondary_voltage_max=secondary_voltage_max, primary_voltage=primary_voltage)
@@ -64,7 +68,12 @@ def select_transformer(
     if secondary_voltage_max is not None:
         needs.append(_Need("secondary_voltage_max", label, secondary_voltage_max, "V", "max",
                            winding))
-    needs.append(_derated("va", "rating", va, va_derating, "VA", lambda p: p.va))
+    if ambient_c is None:
+        needs.append(_derated("va", "rating", va, va_derating, "VA", lambda p: p.va))
+    else:
+        needs.append(_derated("va", "rating", va, va_derating, "VA",
+                              lambda p: p.va * p.ambient_factor(ambient_c),
+                              note=f" at {_fmt(ambient_c, 'degC')} ambient"))
     conditions = []
     if center_tapped:
         conditions.append(_Condition("center_tapped", "center-tapped",
@@ -170,6 +179,7 @@ def select_capacitor(
     voltage: float,
     ripple_current: float,
     ripple_temperature_c: float | None = None,
+    ripple_frequency: float | None = None,
     voltage_derating: float = 1.0,
     ripple_derating: float = 1.0,
     include_tolerance: bool = False,
@@ -190,13 +200,16 @@ def select_capacitor(
         Temperature, degC, at which the part must carry that ripple. A rating quoted at this
         temperature or hotter is accepted as it stands (ripple capability falls as temperature
         rises: common practice, no source); a rating quoted only at a cooler temperature is not.
+    ripple_frequency : float, optional
+        Ripple frequency of the design, Hz (2 f full-wave, f half-wave). Each part's rating is
+        converted to it from the frequency it is quoted at, with the part's multiplier table or
+        the typical one (``Capacitor.ripple_current_at``). Without it the rating is used as
+        quoted.
     include_tolerance : bool
         Compare capacitance x (1 - tolerance) instead of the nominal value.
-
-    The ripple rating is used as quoted (usually at 100/120 Hz); no frequency multiplier is
-    applied.
     """
-    _check_positive(capacitance=capacitance, voltage=voltage, ripple_current=ripple_current)
+    _check_positive(capacitance=capacitance, voltage=voltage, ripple_current=ripple_current,
+                    ripple_frequency=ripple_frequency)
     if include_tolerance:
         cap_need = _Need("capacitance", "capacitance × (1 − tolerance)", capacitance, "F", "min",
                          lambda p: p.capacitance * (1 - p.tolerance))
@@ -204,13 +217,20 @@ def select_capacitor(
         cap_need = _Need("capacitance", "capacitance", capacitance, "F", "min",
                          lambda p: p.capacitance)
     note = ""
+    if ripple_frequency is not None:
+        note = f" at {_fmt(ripple_frequency, 'Hz')}"
     if ripple_temperature_c is not None:
-        note = f" at {_fmt(ripple_temperature_c, 'degC')}"
+        note += f" at {_fmt(ripple_temperature_c, 'degC')}"
+
+    def ripple_rating(p: Capacitor) -> float:
+        return (p.ripple_current if ripple_frequency is None
+                else p.ripple_current_at(ripple_frequency))
+
     needs = [
         cap_need,
         _derated("voltage", "voltage", voltage, voltage_derating, "V", lambda p: p.voltage),
         _derated("ripple_current", "ripple current", ripple_current, ripple_derating, "A",
-                 lambda p: p.ripple_current, note=note),
+                 ripple_rating, note=note),
     ]
     if ripple_temperature_c is not None:
         needs.append(_Need("ripple_temperature", "ripple rating quoted at",

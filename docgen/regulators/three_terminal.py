@@ -183,7 +183,8 @@ def input_rating_floor(ctx, L, v) -> bool:
     if stiffer is None:
         return False
     return ctx.floors.raise_to(
-        "va", stiffer, f"the no-load peak of {fq(L['reservoir.v_max'], 'V')} at high line is "
+        "va", stiffer * L["transformer.k_amb"],
+        f"the no-load peak of {fq(L['reservoir.v_max'], 'V')} at high line is "
         f"above the regulator's {fq(L['reg.v_in_max'], 'V')} input rating with a "
         f"{fq(va, 'VA')} transformer of {fq(reg_now, '%')} typical regulation; the next size "
         "with a lower typical regulation is chosen")

@@ -23,6 +23,7 @@ class Floors:
     va: float = 0.0
     secondary: float = 0.0
     capacitance: float = 0.0
+    ripple_current: float = 0.0  # capacitor ripple-current rating at the ripple frequency
     zener_power: float = 0.0
     resistor_power: float = 0.0
     bridge_current: float = 0.0

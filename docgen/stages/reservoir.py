@@ -7,6 +7,7 @@ import math
 from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
+from ..parts import ripple
 from ..parts.eseries import preferred
 from ..regulators import regulator
 from ..topology import topology
@@ -19,7 +20,10 @@ INTRO = ("The capacitor carries the load between charging pulses. Its capacitanc
          "the ripple allowed at the regulator input with the constant-current approximation "
          "(conservative by some 15-25 % at 10 % ripple) at the largest input current, which a "
          "shunt regulator draws at high line; its low tolerance is used for sizing. "
-         "Its voltage rating covers the no-load peak at high line, with the diode drop neglected.")
+         "Its voltage rating covers the no-load peak at high line, with the diode drop neglected. "
+         "A library part's ripple-current rating is converted from the frequency it is quoted at "
+         "to the ripple frequency with a frequency multiplier table (the part's own, else a "
+         "typical one), and a part the engine finds short is chosen again.")
 
 MAX_CAPACITANCE = 1.0  # F; beyond this no practical reservoir exists for a small supply
 
@@ -82,25 +86,14 @@ def size_reservoir(ctx: SizingContext, L: Ledger) -> None:
         part = ctx.fixed_part("capacitor", r.part, "reservoir.part")
         ctx.picks["C1"] = Pick("C1", "capacitor", "fixed", part, f"{part.id} named in the file")
     elif r.capacitance is None and ctx.library is not None:
-        from ..parts.select import select_capacitor
-
-        sel = select_capacitor(
-            ctx.library.capacitors, capacitance=L["reservoir.c_required"],
-            include_tolerance=True, voltage=L["reservoir.v_max"],
-            voltage_derating=m.capacitor_voltage_derating,
-            ripple_current=L["reservoir.i_ripple_est"],
-            ripple_temperature_c=spec.environment.ambient_max)
-        part = require(sel, "reservoir capacitor")
-        ctx.picks["C1"] = Pick("C1", "capacitor", "library", part, sel.reason, sel.generic)
+        part = _select_from_library(ctx, L)
     if part is not None:
         src = f"library part {part.id}"
         L.given("reservoir.tol", r"t_C", part.tolerance, "%", "Capacitance tolerance", source=src)
         L.given("reservoir.c", "C", part.capacitance, "F", "Reservoir capacitance", source=src)
         L.given("reservoir.v_rating", r"V_{C,rated}", part.voltage, "V",
                 "Capacitor voltage rating", source=src)
-        L.given("reservoir.i_ripple_rating", r"I_{C,rated}", part.ripple_current, "A",
-                f"Capacitor ripple-current rating at {part.ripple_temperature_c:g} degC",
-                source=src)
+        _ripple_rating(L, part, src)
         L.given("reservoir.esr", "ESR", part.esr_at(L["mains.ripple_freq"]), "ohm",
                 "Capacitor ESR at the ripple frequency", source=src)
         L.given("reservoir.life_rated", r"L_0", part.life, "h", "Rated capacitor life",
@@ -142,6 +135,68 @@ def size_reservoir(ctx: SizingContext, L: Ledger) -> None:
                            "E6 value at or above the need; standard voltage step")
     L.calc("reservoir.c_min", eq.BOUND_LOW, r"C_{min}", "F", "Lowest capacitance (tolerance)",
            {"x": "reservoir.c", "t": "reservoir.tol"}, lambda x, t: x * (1 - t))
+
+
+def _select_from_library(ctx: SizingContext, L: Ledger):
+    """The cheapest library capacitor for the need; the ripple-current need is the larger of
+    the hand estimate and the floor the engine raised. When no part meets that floor, the
+    part the estimate allows stays, and the floor's reason says so: its ripple-current check
+    then fails with the engine's figure beside the rating (never a silent pass)."""
+    from ..parts.select import select_capacitor
+
+    spec = ctx.spec
+    args = dict(capacitance=L["reservoir.c_required"], include_tolerance=True,
+                voltage=L["reservoir.v_max"],
+                voltage_derating=spec.margins.capacitor_voltage_derating,
+                ripple_temperature_c=spec.environment.ambient_max,
+                ripple_frequency=L["mains.ripple_freq"])
+    estimate = L["reservoir.i_ripple_est"]
+    floor = ctx.floors.ripple_current
+    sel = select_capacitor(ctx.library.capacitors, ripple_current=max(estimate, floor), **args)
+    if sel.ok and floor > estimate:
+        fid = ctx.floor(L, "ripple_current", "reservoir.i_ripple_floor", r"I_{C,floor}", "A",
+                        "Capacitor ripple-current floor")
+        L.calc("reservoir.i_ripple_need", eq.MAX2, r"I_{C,req}", "A",
+               "Ripple-current rating needed at the ripple frequency",
+               {"a": "reservoir.i_ripple_est", "b": fid}, lambda a, b: max(a, b))
+    elif floor > estimate:
+        short = sel
+        sel = select_capacitor(ctx.library.capacitors, ripple_current=estimate, **args)
+        note = (f"; no capacitor in the library meets it ({short.closest_lacks or short.reason}"
+                "), so C1 stays as chosen from the estimate and its ripple-current check fails")
+        if sel.ok and note not in ctx.floors.reasons["ripple_current"]:
+            ctx.floors.reasons["ripple_current"] += note
+    if "reservoir.i_ripple_need" not in L:
+        L.calc("reservoir.i_ripple_need", eq.IDENT, r"I_{C,req}", "A",
+               "Ripple-current rating needed at the ripple frequency",
+               {"x": "reservoir.i_ripple_est"}, lambda x: x)
+    part = require(sel, "reservoir capacitor")
+    ctx.picks["C1"] = Pick("C1", "capacitor", "library", part, sel.reason, sel.generic)
+    return part
+
+
+def _ripple_rating(L: Ledger, part, src: str) -> None:
+    """The part's ripple-current rating at the design's ripple frequency: the quoted rating
+    times the ratio of the frequency multipliers (docgen.parts.ripple)."""
+    f_q = part.quoted_frequency
+    L.given("reservoir.i_ripple_quoted", r"I_{C,q}", part.ripple_current, "A",
+            f"Capacitor ripple-current rating as quoted ({part.ripple_temperature_c:g} degC)",
+            source=src)
+    L.given("reservoir.f_ripple_quoted", r"f_q", f_q, "Hz",
+            "Frequency of the quoted ripple-current rating",
+            source=src if part.ripple_frequency is not None else
+            "not stated by the part: makers quote 100 Hz or 120 Hz (common practice)",
+            defaulted=part.ripple_frequency is None)
+    table = (f"{src}, its frequency multiplier table" if part.ripple_multipliers
+             else ripple.TYPICAL_SOURCE)
+    L.given("reservoir.m_ripple", r"M(f_r)", part.ripple_multiplier(L["mains.ripple_freq"]), "",
+            "Ripple-current multiplier at the ripple frequency", source=table)
+    L.given("reservoir.m_ripple_quoted", r"M(f_q)", part.ripple_multiplier(f_q), "",
+            "Ripple-current multiplier at the quoted frequency", source=table)
+    L.calc("reservoir.i_ripple_rating", eq.RIPPLE_RATING_AT_FREQ, r"I_{C,rated}", "A",
+           "Capacitor ripple-current rating at the ripple frequency",
+           {"i": "reservoir.i_ripple_quoted", "a": "reservoir.m_ripple",
+            "b": "reservoir.m_ripple_quoted"}, lambda i, a, b: i * a / b)
 
 
 def stored_energy_and_allowance(ctx: SizingContext, L: Ledger) -> None:

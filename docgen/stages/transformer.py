@@ -7,6 +7,7 @@ import math
 from .. import equations as eq
 from .. import standards
 from ..errors import InfeasibleDesign
+from ..parts import ambient
 from ..topology import topology
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
@@ -23,7 +24,10 @@ TITLE = "Transformer"
 INTRO = ("The rated secondary voltage is specified at rated load and nominal mains, so the "
          "low-line, full-load secondary is the rated voltage scaled by the low-line ratio. The "
          "capacitor peak must cover the regulator's trough voltage, the ripple and two diode "
-         "drops. The no-load voltage is higher by the transformer's regulation.")
+         "drops. The no-load voltage is higher by the transformer's regulation. When the "
+         "highest ambient is above the ambient its rating holds at, the secondary current it "
+         "may carry is derated so that the copper loss keeps the winding within its insulation "
+         "class (the core loss is not included in this rule).")
 
 
 def size_transformer(ctx: SizingContext, L: Ledger) -> None:
@@ -93,6 +97,7 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
         ctx.picks["T1"] = Pick("T1", "transformer", "library" if shared else "fixed", part,
                                shared or f"{part.id} named in the file")
         _from_part(L, part)
+        _ambient(L, part)
     elif t.secondary is not None:
         how = "chosen for both rails" if shared else "fixed part"
         L.given("transformer.v_rated", r"V_{sec}", t.secondary, "V",
@@ -101,6 +106,7 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
                 source=shared)
         ctx.picks["T1"] = Pick("T1", "transformer", "sized" if shared else "fixed",
                                reason=shared or "ratings given in the file")
+        _ambient(L)
     else:
         _size_rating(ctx, L)
 
@@ -120,6 +126,12 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
     L.calc("transformer.i_rated", eq.RATED_CURRENT, r"I_{sec,rated}", "A",
            "Rated secondary current", {"s": "transformer.va", "v": "transformer.v_rated"},
            lambda s, v: s / v)
+    L.calc("transformer.i_allowed", eq.SCALE, r"I_{sec,allow}", "A",
+           "Secondary current allowed at the highest ambient",
+           {"v": "transformer.i_rated", "k": "transformer.k_amb"}, lambda v, k: v * k)
+    L.calc("transformer.va_allowed", eq.SCALE, r"S_{allow}", "VA",
+           "Apparent power allowed at the highest ambient",
+           {"v": "transformer.va", "k": "transformer.k_amb"}, lambda v, k: v * k)
     if topo.center_tapped:
         L.calc("transformer.v_path", eq.CT_HALF, r"V_{path}", "V",
                "Rated voltage of each half winding", {"v": "transformer.v_rated"},
@@ -140,6 +152,18 @@ def size_transformer(ctx: SizingContext, L: Ledger) -> None:
     L.calc("transformer.v_high_nl", eq.LINE_HIGH, r"V_{path,NL,hi}", "V",
            "Winding voltage at high line, no load",
            {"v": "transformer.v_nl", "t": "mains.tol_high"}, lambda v, t: v * (1 + t))
+    # the safety limits concern the whole winding, end to end: both halves of a center tap
+    if topo.center_tapped:
+        L.calc("transformer.v_winding_high_nl", eq.CT_WHOLE, r"V_{sec,NL,hi}", "V",
+               "Whole winding (end to end) at high line, no load",
+               {"v": "transformer.v_high_nl"}, lambda v: 2 * v)
+    else:
+        L.calc("transformer.v_winding_high_nl", eq.IDENT, r"V_{sec,NL,hi}", "V",
+               "Whole winding (end to end) at high line, no load",
+               {"x": "transformer.v_high_nl"}, lambda x: x)
+    L.calc("transformer.v_winding_peak", eq.SINE_PEAK, r"V_{sec,NL,hi,pk}", "V",
+           "Peak of the whole winding at high line, no load",
+           {"v": "transformer.v_winding_high_nl"}, lambda v: math.sqrt(2) * v)
 
 
 def _from_part(L: Ledger, part) -> None:
@@ -154,6 +178,33 @@ def _from_part(L: Ledger, part) -> None:
         L.given("transformer.regulation", r"\mathrm{Reg}",
                 part.winding_resistance * part.rated_current / part.secondary_voltage, "%",
                 "Transformer regulation (from the winding resistance)", source=src)
+
+
+def _ambient(L: Ledger, part=None) -> None:
+    """The current derating for an ambient above the transformer's rated one
+    (docgen.parts.ambient): the part's rated ambient and class, else the documented defaults."""
+    rated = part.rated_ambient_c if part is not None else None
+    cls = part.insulation_class if part is not None else None
+    src = f"library part {part.id}" if part is not None else ""
+    L.given("transformer.t_amb_rated", r"T_{A,rated}",
+            rated if rated is not None else ambient.DEFAULT_RATED_AMBIENT, "degC",
+            "Ambient the transformer's rating holds at",
+            source=src if rated is not None else ambient.DEFAULT_RATED_AMBIENT_SOURCE,
+            defaulted=rated is None)
+    L.given("transformer.t_class", r"T_{class}",
+            ambient.CLASS_TEMPERATURE[cls or ambient.DEFAULT_CLASS], "degC",
+            f"Winding temperature limit (insulation class {cls or ambient.DEFAULT_CLASS})",
+            source=(src + ", insulation class; IEC 60085 class temperature (from memory)"
+                    if cls else ambient.DEFAULT_CLASS_SOURCE), defaulted=cls is None)
+    L.calc("transformer.k_amb", eq.XFMR_AMBIENT_DERATING, r"k_{amb}", "%",
+           "Secondary current derating for the highest ambient",
+           {"c": "transformer.t_class", "a": "env.t_max", "r": "transformer.t_amb_rated"},
+           lambda c, a, r: ambient.ambient_factor(a, r, c))
+    if L["transformer.k_amb"] <= 0:
+        raise InfeasibleDesign(
+            f"the highest ambient ({L['env.t_max']:g} degC) reaches the "
+            f"{L['transformer.t_class']:g} degC limit of the transformer's insulation class: "
+            "no current is allowed; use a transformer of a higher thermal class")
 
 
 def _size_rating(ctx: SizingContext, L: Ledger) -> None:
@@ -187,11 +238,17 @@ def _size_rating(ctx: SizingContext, L: Ledger) -> None:
         sel = select_transformer(
             ctx.library.transformers, secondary_voltage=need_sel, va=L["transformer.va_sized"],
             center_tapped=tapped, secondary_voltage_max=ceiling,
-            primary_voltage=ctx.spec.mains.nominal)
+            primary_voltage=ctx.spec.mains.nominal, ambient_c=L["env.t_max"])
         part = require(sel, "transformer")
         ctx.picks["T1"] = Pick("T1", "transformer", "library", part, sel.reason, sel.generic)
         _from_part(L, part)
+        _ambient(L, part)
         return
+    # a standard step is rated at the default ambient and class: size it for the derating
+    _ambient(L)
+    L.calc("transformer.va_rated_needed", eq.DERATED_NEED, r"S_{rated,req}", "VA",
+           "Rated apparent power needed (derated for the highest ambient)",
+           {"x": "transformer.va_sized", "k": "transformer.k_amb"}, lambda x, k: x / k)
     need = L["transformer.v_rated_needed"]
     if topology(ctx.spec.rectifier.topology).center_tapped:
         # standard center-tapped windings are twice a standard half (2 x 12 V = 24 V)
@@ -220,12 +277,12 @@ def _size_rating(ctx: SizingContext, L: Ledger) -> None:
 
 def _pick_va(L: Ledger) -> None:
     try:
-        standards.next_at_or_above(L["transformer.va_sized"], standards.TRANSFORMER_VA)
+        standards.next_at_or_above(L["transformer.va_rated_needed"], standards.TRANSFORMER_VA)
     except standards.NoStandardValue:
         raise InfeasibleDesign(
-            f"the design needs {L['transformer.va_sized']:.0f} VA, above the largest "
+            f"the design needs {L['transformer.va_rated_needed']:.0f} VA, above the largest "
             f"standard transformer ({standards.TRANSFORMER_VA[-1]:g} VA)"
         ) from None
     L.calc("transformer.va", eq.PICKED, "S", "VA", "Rated apparent power (standard step)",
-           {"x": "transformer.va_sized"},
+           {"x": "transformer.va_rated_needed"},
            lambda x: standards.next_at_or_above(x, standards.TRANSFORMER_VA))

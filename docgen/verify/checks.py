@@ -88,8 +88,9 @@ class EngineCheck:
 COMMON_CHECKS = (
     # Worst over every corner, high line included: a shunt regulator's current rises with the
     # line, and the winding heats with the current it carries (common practice).
-    EngineCheck("check.transformer_current", "Secondary RMS current <= rated current",
-                "i_sec_rms", "max", "transformer.i_rated", r"I_{sec,rms}", "A", "T1", ""),
+    EngineCheck("check.transformer_current", "Secondary RMS current <= rated current "
+                "derated for the ambient", "i_sec_rms", "max", "transformer.i_allowed",
+                r"I_{sec,rms}", "A", "T1", ""),
     EngineCheck("check.bridge_current", "Rectifier output current <= derated I_F(AV)", "i_dc",
                 "max", "rect.i_allowed", r"I_{DC}", "A", "RECT",
                 "margins.diode_current_derating"),

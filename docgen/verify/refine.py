@@ -65,13 +65,17 @@ def raise_floors(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> bool:
     v = PassVerdict(cr, L, reg.engine_checks, band)
     changed = False
 
-    if not fixed_t and v.short("check.transformer_current", "transformer.i_rated", "max"):
+    if not fixed_t and v.short("check.transformer_current", "transformer.i_allowed", "max"):
         i, where = v.worst("check.transformer_current")
+        # the floor is the VA needed at the highest ambient (derated); sizing divides by the
+        # derating of the part it picks
         need = i * L["transformer.v_rated"] / (1 - band)
+        derated = ("" if L["transformer.k_amb"] >= 1 else
+                   f" ({fq(L['transformer.i_allowed'], 'A')} at the highest ambient)")
         changed |= ctx.floors.raise_to(
             "va", need, f"the engine found {fq(i, 'A')} RMS in the secondary at {where}, above "
-            f"the {fq(L['transformer.i_rated'], 'A')} rating of a {fq(L['transformer.va'], 'VA')}"
-            " transformer")
+            f"the {fq(L['transformer.i_rated'], 'A')} rating{derated} of a "
+            f"{fq(L['transformer.va'], 'VA')} transformer")
     if not fixed_t and reg.trough_short(v):
         changed |= _raise_transformer_for_trough(ctx, L)
     else:
@@ -82,6 +86,18 @@ def raise_floors(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> bool:
         need = L["reservoir.c_required"] * ripple / L["output.ripple_max"] * 1.05
         changed |= ctx.floors.raise_to(
             "capacitance", need, f"the engine found {fq(ripple, 'V')} output ripple at {where}")
+    if (ctx.library is not None and spec.reservoir.capacitance is None
+            and not spec.reservoir.part
+            and v.short("check.cap_ripple_current", "reservoir.i_ripple_rating", "max")):
+        # a library capacitor whose ripple rating the engine finds short is chosen again
+        # against the engine's figure (with the warning band), not left failing
+        i, where = v.worst("check.cap_ripple_current")
+        changed |= ctx.floors.raise_to(
+            "ripple_current", i / (1 - band),
+            f"the engine found {fq(i, 'A')} RMS ripple current in C1 at {where}, above "
+            f"{fq(L['reservoir.i_ripple_rating'] * (1 - band), 'A')} (the "
+            f"{fq(L['reservoir.i_ripple_rating'], 'A')} rating at "
+            f"{fq(L['mains.ripple_freq'], 'Hz')} less the warning band)")
     changed |= reg.raise_part_floors(ctx, L, v)
     if not spec.rectifier.part and v.short("check.bridge_current", "rect.i_allowed", "max"):
         i, where = v.worst("check.bridge_current")
@@ -99,8 +115,10 @@ def _raise_transformer_for_trough(ctx: SizingContext, L: Ledger) -> bool:
     if L["transformer.regulation"] > STIFF_REGULATION and stiffer is not None:
         # A small transformer's winding resistance eats the headroom: a larger core with
         # better regulation helps without the extra heat of a higher secondary.
+        # floors hold the VA needed at the highest ambient: the next step, derated
         return ctx.floors.raise_to(
-            "va", stiffer, f"at the trough the engine found too little headroom with a "
+            "va", stiffer * L["transformer.k_amb"],
+            f"at the trough the engine found too little headroom with a "
             f"{fq(va, 'VA')} transformer whose regulation is "
             f"{fq(L['transformer.regulation'], '%')} (winding resistance)")
     nxt = next((s for s in standards.SECONDARY_VOLTAGES if s > v * (1 + 1e-9)), v * 1.25)
