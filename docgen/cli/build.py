@@ -24,7 +24,7 @@ def run_build(args) -> int:
 
 def _build_single(path: Path, args) -> int:
     from ..errors import DocgenError
-    from ..incremental import build_incremental
+    from ..jobs.incremental import build_incremental
     from ..progress import reporting
 
     try:
@@ -33,7 +33,7 @@ def _build_single(path: Path, args) -> int:
     except DocgenError as exc:
         if args.format != "json":
             raise
-        from ..batch import _error_outcome
+        from ..jobs.batch import _error_outcome
 
         print(f"docgen: error: {exc}", file=sys.stderr)
         outcome = _error_outcome(path, args.out, str(exc), exc.exit_code)
@@ -60,14 +60,14 @@ def _build_single(path: Path, args) -> int:
 
 
 def _build_batch(specs: list[Path], args) -> int:
-    from ..batch import Progress, _error_outcome, run_batch, summary_table, unique_specs
+    from ..jobs.batch import Progress, _error_outcome, run_batch, summary_table, unique_specs
 
     specs = unique_specs(specs, args.out)
     progress = None if args.quiet else Progress(len(specs))
     # Every spec to be built is validated first, so a bad file is reported before the first
     # build starts; the valid ones are still built. An up-to-date spec was valid when it was
     # built and has not changed since, so it is not read again (a no-change run stays fast).
-    from ..incremental import check_up_to_date
+    from ..jobs.incremental import check_up_to_date
 
     stale = [spec for spec in specs
              if args.force or check_up_to_date(spec, args.out, pdf=not args.no_pdf)[0] is None]

@@ -8,7 +8,7 @@ from .inputs import reporter
 
 
 def run_diff(args) -> int:
-    from ..diff import (
+    from ..jobs.diff import (
         DiffUsageError,
         check_html_target,
         compare,

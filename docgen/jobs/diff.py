@@ -21,7 +21,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
-from .errors import DocgenError, InfeasibleDesign, SpecError, SpecIssue
+from ..errors import DocgenError, InfeasibleDesign, SpecError, SpecIssue
 
 DEFAULT_THRESHOLD = 1e-9
 REPORT_MARKER = '<meta name="generator" content="docgen diff">'
@@ -48,7 +48,7 @@ class Side:
 
 
 def _compute(label: str, loaded) -> Side:
-    from .pipeline import run
+    from ..pipeline import run
 
     try:
         design = run(loaded)
@@ -58,7 +58,7 @@ def _compute(label: str, loaded) -> Side:
 
 
 def load_side(path: Path) -> Side:
-    from .spec import load_requirements
+    from ..spec import load_requirements
 
     return _compute(str(path), load_requirements(path))
 
@@ -78,7 +78,7 @@ def load_text_side(text: str, name: str, label: str,
     """Load requirements given as text (written to a temporary folder, since the loader reads
     files), with the files it refers to (``files``: path relative to the spec's folder, bytes)
     at the same relative places; errors name ``label`` instead of the temporary file."""
-    from .spec import load_requirements
+    from ..spec import load_requirements
 
     files = files or []
     with tempfile.TemporaryDirectory(prefix="docgen-diff-") as tmp:
@@ -159,16 +159,16 @@ def load_rev_side(spec: Path, rev: str) -> Side:
     _check_rev(spec, rev)
     if not spec.is_file():
         # the working copy is loaded first so a missing file is reported in the usual way
-        from .spec import load_requirements
+        from ..spec import load_requirements
 
         load_requirements(spec)
     text = git_show(spec, rev)
     folder = spec.parent if str(spec.parent) else Path(".")
     files: list[tuple[str, bytes]] = []
     notes: list[str] = []
-    from .parts.library import MAX_BYTES
-    from .parts.location import confine
-    from .textfile import read_bounded
+    from ..parts.library import MAX_BYTES
+    from ..parts.location import confine
+    from ..textfile import read_bounded
 
     base = spec.resolve().parent
     for role, ref in extra_inputs(Path(spec.name), text.encode("utf-8")):
@@ -288,7 +288,7 @@ def moved(old: float, new: float, threshold: float) -> bool:
 
 
 def _field_text(value: Any, unit: str) -> str:
-    from .units import format_quantity
+    from ..units import format_quantity
 
     if value is None:
         return "not set"
@@ -346,7 +346,7 @@ def compare_requirements(old: Any, new: Any, threshold: float = 1e-12) -> list[F
 
 
 def _value_rows(old: Any, new: Any, threshold: float) -> list[ValueChange]:
-    from .units import format_quantity as fq
+    from ..units import format_quantity as fq
 
     rows = []
     for vid, nv in new.values.items():
@@ -531,7 +531,7 @@ def render_html(report: DiffReport) -> str:
 def check_html_target(target: Path, inputs: list[Path]) -> None:
     """Refuse, before any work, to write the report over an input or over a file that is not
     an earlier change report."""
-    from .errors import RenderError
+    from ..errors import RenderError
 
     for p in inputs:
         try:
