@@ -8,16 +8,11 @@ from .inputs import reporter
 
 
 def run_diff(args) -> int:
-    from ..jobs.diff import (
-        DiffUsageError,
-        check_html_target,
-        compare,
-        load_rev_side,
-        load_side,
-        terminal_text,
-        write_html,
-    )
+    from ..jobs.diff_changes import compare
+    from ..jobs.diff_file import check_html_target, write_html
+    from ..jobs.diff_sides import DiffUsageError, load_rev_side, load_side
     from ..progress import reporting, stage
+    from ..render.diff_views import terminal_text
 
     if args.out is not None:
         check_html_target(args.out, list(args.specs))
