@@ -108,7 +108,7 @@ def wrap(owner, name, key):
             totals[key] = totals.get(key, 0.0) + time.perf_counter() - start
     setattr(owner, name, timed)
 
-import docgen.build as build
+import docgen.jobs.build as build
 import docgen.render.html as html
 import docgen.render.mathsvg as mathsvg
 import docgen.render.pdf as pdf

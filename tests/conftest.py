@@ -38,7 +38,7 @@ DEMO_STANDALONE = standalone(DEMO.read_text())
 @pytest.fixture(scope="session")
 def demo_build(tmp_path_factory):
     """Build the demo spec once (HTML, PDF, results.json) for the end-to-end tests."""
-    from docgen.build import build_one
+    from docgen.jobs.build import build_one
 
     out = tmp_path_factory.mktemp("out")
     return build_one(DEMO, out, pdf=True)

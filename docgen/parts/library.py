@@ -106,10 +106,7 @@ from .models import (  # the public part models, re-exported
     Zener,
     _PartBase,
 )
-from .readers import (
-    _Reader,
-    _show_raw,
-)
+from .readers import _show_raw
 
 __all__ = [
     "SCHEMA",
@@ -237,9 +234,9 @@ def _expects(model: type[BaseModel], key: str) -> str:
     for name, info in model.model_fields.items():
         if (info.alias or name) == key:
             for meta in info.metadata:
-                func = getattr(meta, "func", None)
-                if isinstance(func, _Reader):
-                    return func.expects
+                expects = getattr(getattr(meta, "func", None), "expects", None)
+                if isinstance(expects, str):
+                    return expects
     return "a value"
 
 

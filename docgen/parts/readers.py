@@ -1,5 +1,6 @@
-"""Readers of the parts library's fields: quantities with units, fractions, lengths,
-decibels, prices, text, flags and choices, each with the wording of its error."""
+"""Readers of the parts library's fields: quantities with units, fractions and decibels (the
+readers the requirements file uses too, docgen.quantity_reader), lengths, prices, text, flags
+and choices, each with the wording of its error."""
 
 from __future__ import annotations
 
@@ -10,7 +11,8 @@ from typing import Annotated, Any
 
 from pydantic import BeforeValidator
 
-from ..units import as_float, expected_text, format_quantity, parse_quantity, show_raw
+from ..quantity_reader import DecibelReader, QuantityReader
+from ..units import as_float, parse_quantity, show_raw
 from . import eseries
 
 
@@ -19,60 +21,6 @@ class _Reader:
 
     def __call__(self, raw: Any) -> Any:  # pragma: no cover - overridden
         raise NotImplementedError
-
-
-class _Quantity(_Reader):
-    """Quantity text or SI number -> SI float, with range checks in the field's own unit."""
-
-    def __init__(self, dimension: str, *, sign: str = "positive", unit: str | None = None,
-                 low: float | None = None, high: float | None = None, hint: str = "") -> None:
-        self.dimension = dimension
-        self.sign = sign  # "positive" (> 0), "non-negative" (>= 0) or "any"
-        self.unit = unit  # display unit for messages
-        self.low = low
-        self.high = high
-        self.hint = hint
-        self.expects = expected_text(dimension)
-
-    def _show(self, value: float) -> str:
-        if self.unit == "1/K":
-            return f"{value * 100:g} %/K"
-        return format_quantity(value, self.unit) if self.unit is not None else f"{value:g}"
-
-    def __call__(self, raw: Any) -> float:
-        value = parse_quantity(raw, self.dimension)  # UnitError is a ValueError
-        what = self.dimension.replace("_", " ")
-        if self.sign == "positive" and not value > 0:
-            raise ValueError(f"expected a positive {what}, got {show_raw(raw)}{self.hint}")
-        if self.sign == "non-negative" and value < 0:
-            raise ValueError(f"expected zero or a positive {what}, got {show_raw(raw)}{self.hint}")
-        if self.low is not None and value < self.low:
-            raise ValueError(f"expected at least {self._show(self.low)}, "
-                             f"got {show_raw(raw)}{self.hint}")
-        if self.high is not None and value > self.high:
-            raise ValueError(f"expected at most {self._show(self.high)}, "
-                             f"got {show_raw(raw)}{self.hint}")
-        return value
-
-
-class _Fraction(_Reader):
-    """A ratio such as "20 %" or 0.2, in [0, high]; catches 20 meant as 20 %."""
-
-    def __init__(self, high: float = 1.0, *, positive: bool = False) -> None:
-        self.high = high
-        self.positive = positive
-        self.expects = expected_text("ratio")
-
-    def __call__(self, raw: Any) -> float:
-        value = parse_quantity(raw, "ratio")
-        if value < 0 or (self.positive and value == 0):
-            raise ValueError(f"expected a {'positive' if self.positive else 'non-negative'} "
-                             f"fraction such as \"10 %\" or 0.1, got {show_raw(raw)}")
-        if value > self.high:
-            hint = (f"; if {show_raw(raw)} is meant in percent, write \"{raw} %\""
-                    if isinstance(raw, (int, float)) and not isinstance(raw, bool) else "")
-            raise ValueError(f"expected at most {self.high * 100:g} %, got {show_raw(raw)}{hint}")
-        return value
 
 
 class _Length(_Reader):
@@ -96,29 +44,6 @@ class _Length(_Reader):
             raise ValueError(f"expected {self.expects}, got {type(raw).__name__}")
         if not (math.isfinite(value) and value > 0):
             raise ValueError(f"expected a positive length, got {show_raw(raw)}")
-        return value
-
-
-class _Decibel(_Reader):
-    """Decibels as "80 dB" or a plain number of dB (kept in dB)."""
-
-    expects = '"80 dB" or a number of decibels'
-
-    def __call__(self, raw: Any) -> float:
-        if isinstance(raw, bool):
-            raise ValueError(f"expected {self.expects}, got a true/false value")
-        if isinstance(raw, (int, float)):
-            value = as_float(raw)
-        elif isinstance(raw, str):
-            m = re.fullmatch(r"[ \t]*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+))[ \t]*(dB)?[ \t]*",
-                             raw)
-            if not m:
-                raise ValueError(f"expected {self.expects}, got {show_raw(raw)}")
-            value = float(m.group(1))
-        else:
-            raise ValueError(f"expected {self.expects}, got {type(raw).__name__}")
-        if not (math.isfinite(value) and value > 0):
-            raise ValueError(f"expected a positive number of dB, got {show_raw(raw)}")
         return value
 
 
@@ -228,7 +153,7 @@ def _show_raw(raw: Any) -> str:
 
 
 def _q(dimension: str, unit: str | None = None, **kw: Any) -> Any:
-    return Annotated[float, BeforeValidator(_Quantity(dimension, unit=unit, **kw))]
+    return Annotated[float, BeforeValidator(QuantityReader(dimension, unit, **kw))]
 
 
 Voltage = _q("voltage", "V")
@@ -244,11 +169,11 @@ ChargeIntegral = _q("charge_integral", "A2s")
 ThermalResistance = _q("thermal_resistance", "K/W")
 Temperature = _q("temperature", "degC", sign="any", low=-60.0, high=250.0)
 TempCo = _q("tempco", "1/K", sign="any", low=-0.01, high=0.01)
-Tolerance = Annotated[float, BeforeValidator(_Fraction(0.5, positive=True))]
-Regulation = Annotated[float, BeforeValidator(_Fraction(2.0))]
-TanDelta = Annotated[float, BeforeValidator(_Fraction(1.0, positive=True))]
+Tolerance = _q("ratio", "%", high=0.5)
+Regulation = _q("ratio", "%", sign="non-negative", high=2.0)
+TanDelta = _q("ratio", "%", high=1.0)
 Length = Annotated[float, BeforeValidator(_Length())]
-Decibel = Annotated[float, BeforeValidator(_Decibel())]
+Decibel = Annotated[float, BeforeValidator(DecibelReader())]
 Number = Annotated[float, BeforeValidator(_Number())]
 Price = Annotated[float, BeforeValidator(_Price())]
 Text = Annotated[str, BeforeValidator(_Text())]

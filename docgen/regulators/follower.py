@@ -59,7 +59,7 @@ def size_needs(ctx: SizingContext, L: Ledger) -> None:
     if z.voltage is not None:
         L.given("zener.v_nom", r"V_Z", z.voltage, "V", "Zener voltage (nominal)")
     else:
-        from .zener_sizing import standard_voltage
+        from .zener_part import standard_voltage
 
         standard_voltage(ctx, L, "zener.v_target", lambda v: v - q.v_be)
         L.calc("zener.v_nom", eq.IDENT, r"V_Z", "V", "Zener voltage (nominal, standard value)",
@@ -171,7 +171,7 @@ def size_follower(ctx: SizingContext, L: Ledger) -> None:
            "R1 dissipation, initial estimate (hand formula)",
            {"a": "reservoir.v_mean_high", "b": "zener.v_min", "R": "zener.r"},
            lambda a, b, R: (a - b) ** 2 / R)
-    from .zener_sizing import record_power_deratings, self_heating, zener_rating
+    from .zener_part import record_power_deratings, self_heating, zener_rating
 
     record_power_deratings(ctx, L)
 

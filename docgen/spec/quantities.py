@@ -1,4 +1,5 @@
-"""Pydantic field types that read quantities with units and store SI floats.
+"""Pydantic field types of the requirements file that read quantities with units and store SI
+floats (through :class:`docgen.quantity_reader.QuantityReader`, shared with the parts library).
 
 Each type also bounds its value to what a small mains-powered supply can physically involve, so a
 typing slip ("40 A" for "40 mA", "1e300 V") is caught at the edge with a clear message instead of
@@ -12,15 +13,8 @@ from typing import Annotated
 
 from pydantic import BeforeValidator, WithJsonSchema
 
-from ..units import (
-    _NO_PREFIX,
-    DIMENSIONS,
-    PREFIXES,
-    UnitError,
-    format_quantity,
-    parse_quantity,
-    show_raw,
-)
+from ..quantity_reader import DecibelReader, QuantityReader
+from ..units import _NO_PREFIX, DIMENSIONS, PREFIXES
 
 # The number part of a quantity as the unit parser reads it (JSON Schema / ECMA-262 syntax).
 NUMBER_PATTERN = r"[-+]?(\d+(\.\d*)?|\.\d+)([eE][-+]?\d+)?"
@@ -60,25 +54,11 @@ _EXAMPLES = {"voltage": "230 V", "current": "40 mA", "capacitance": "4700 uF",
 
 def _quantity(dimension: str, unit: str, *, positive: bool = False, non_negative: bool = False,
               low: float | None = None, high: float | None = None):
-    """A float field type that reads text with units and bounds the value."""
-    def read(raw: object) -> float:
-        try:
-            value = parse_quantity(raw, dimension)
-        except UnitError as exc:
-            raise ValueError(str(exc)) from None
-        if positive and value <= 0:
-            raise ValueError(f"must be greater than zero, got {show_raw(raw)}")
-        if non_negative and value < 0:
-            raise ValueError(f"must not be negative, got {show_raw(raw)}")
-        if high is not None and value > high:
-            raise ValueError(f"{show_raw(raw)} is above {format_quantity(high, unit)}, the "
-                             "largest value docgen accepts here")
-        if low is not None and value < low:
-            raise ValueError(f"{show_raw(raw)} is below {format_quantity(low, unit)}, the "
-                             "smallest value docgen accepts here")
-        return value
-
-    return Annotated[float, BeforeValidator(read), _json_schema(dimension, unit)]
+    """A float field type that reads text with units and bounds the value (the reader is the
+    parts library's too, so both files word the same mistake the same way)."""
+    sign = "positive" if positive else "non-negative" if non_negative else "any"
+    reader = QuantityReader(dimension, unit, sign=sign, low=low, high=high)
+    return Annotated[float, BeforeValidator(reader), _json_schema(dimension, unit)]
 
 
 Voltage = _quantity("voltage", "V", positive=True, high=1000.0)
@@ -101,23 +81,8 @@ ThermalResistance = _quantity("thermal_resistance", "K/W", positive=True,
                                              high=1e4)
 
 
-def _decibels(raw: object) -> float:
-    """A level in decibels: a plain number or text such as "60 dB" (dB is not an SI unit, so
-    the shared unit parser does not take it)."""
-    text = raw.strip() if isinstance(raw, str) else raw
-    if isinstance(text, str) and text.endswith("dB"):
-        text = text[:-2].strip()
-    try:
-        value = float(text) if isinstance(text, (str, int, float)) and not isinstance(
-            text, bool) else float("nan")
-    except ValueError:
-        value = float("nan")
-    if not 0.0 <= value <= 120.0:
-        raise ValueError(f"expected a level from 0 dB to 120 dB such as \"60 dB\", got {raw!r}")
-    return value
-
-
-Decibels = Annotated[float, BeforeValidator(_decibels), WithJsonSchema({"anyOf": [
+Decibels = Annotated[float, BeforeValidator(DecibelReader(sign="non-negative", high=120.0)),
+                     WithJsonSchema({"anyOf": [
     {"type": "number", "minimum": 0, "maximum": 120, "description": "in dB"},
     {"type": "string", "pattern": f"^\\s*{NUMBER_PATTERN}\\s*(dB)?\\s*$",
      "description": "a level such as \"60 dB\""},

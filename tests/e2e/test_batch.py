@@ -15,10 +15,10 @@ from pathlib import Path
 
 import pytest
 
-from docgen import incremental
-from docgen.batch import Progress
 from docgen.cli import main
-from docgen.incremental import STAMP_NAME, Outcome
+from docgen.jobs import incremental
+from docgen.jobs.batch import Progress
+from docgen.jobs.incremental import STAMP_NAME, Outcome
 
 from ..conftest import DATA, DEMO
 

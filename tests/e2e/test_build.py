@@ -60,7 +60,7 @@ def test_html_is_self_contained_and_links_resolve(demo_build):
 
 
 def test_outputs_are_byte_identical_across_builds(demo_build, tmp_path):
-    from docgen.build import build_one
+    from docgen.jobs.build import build_one
 
     again = build_one(DEMO, tmp_path, pdf=False)
     for name in ("results.json", "report.html", "plots/waveforms_trough.svg", "plots/monte_carlo.svg"):

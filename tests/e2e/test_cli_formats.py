@@ -10,7 +10,8 @@ import sys
 
 import pytest
 
-from docgen.cli import _parser, main
+from docgen.cli import main
+from docgen.cli.parser import build_parser
 from docgen.progress import StageReporter, reporting, stage
 from docgen.starter import REGULATORS, starter
 
@@ -201,7 +202,7 @@ def _bash_complete(tmp_path, words: list[str]) -> list[str]:
 def _script(shell: str) -> str:
     from docgen.completion import script
 
-    return script(_parser(), shell)
+    return script(build_parser(), shell)
 
 
 @pytest.mark.skipif(shutil.which("bash") is None, reason="bash not installed")
@@ -217,7 +218,7 @@ def test_bash_completion_follows_the_parser(tmp_path):
 
 
 def test_completion_covers_every_option_of_every_command():
-    parser = _parser()
+    parser = build_parser()
     sub = next(a for a in parser._actions if a.__class__.__name__ == "_SubParsersAction")
     for shell in ("bash", "zsh"):
         text = _script(shell)

@@ -8,7 +8,7 @@ import json
 
 import pytest
 
-from docgen.build import build_one
+from docgen.jobs.build import build_one
 from docgen.spec import load_requirements
 
 from ..conftest import ROOT

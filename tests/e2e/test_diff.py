@@ -14,8 +14,9 @@ from pathlib import Path
 import pytest
 
 from docgen.cli import main
-from docgen.diff import compare, load_side
 from docgen.errors import SpecError, SpecIssue
+from docgen.jobs.diff_changes import compare
+from docgen.jobs.diff_sides import load_side
 
 from ..conftest import DEMO
 
@@ -275,7 +276,7 @@ def test_rev_with_an_invalid_old_version_names_the_revision(repo, capsys):
 
 
 def test_rev_reads_a_referenced_parts_library_at_the_same_revision(repo, monkeypatch):
-    import docgen.diff
+    import docgen.jobs.diff_sides
     import docgen.spec
 
     root = repo.parent.parent
@@ -298,7 +299,7 @@ def test_rev_reads_a_referenced_parts_library_at_the_same_revision(repo, monkeyp
 
     monkeypatch.setattr(docgen.spec, "load_requirements", fake_loader)
     with pytest.raises(SpecError) as info:
-        docgen.diff.load_rev_side(repo, "HEAD")
+        docgen.jobs.diff_sides.load_rev_side(repo, "HEAD")
     assert info.value.path == f"{repo} at HEAD"
     assert seen["library"] == b"# v1 shared\n"
     assert 'library = "../parts/shared.toml"' in seen["spec"]

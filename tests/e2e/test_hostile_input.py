@@ -276,7 +276,7 @@ def test_a_second_build_into_a_locked_folder_is_refused(tmp_path, capsys):
 
 
 def test_up_to_date_is_judged_by_content_and_leftover_temp_files_are_removed(tmp_path, capsys):
-    from docgen.incremental import build_incremental
+    from docgen.jobs.incremental import build_incremental
 
     spec = tmp_path / "s.toml"
     spec.write_text(BASE)
@@ -301,7 +301,7 @@ def test_bom_cells_cannot_run_as_spreadsheet_formulas(tmp_path):
     import csv
     import io
 
-    from docgen.build import build_one
+    from docgen.jobs.build import build_one
     from docgen.render.bom import _cell, neutralise
 
     assert neutralise("=HYPERLINK(1)") == "'=HYPERLINK(1)"

@@ -134,7 +134,7 @@ def test_read_only_output_folder_is_a_clear_error(tmp_path, capsys):
 
 
 def test_markup_in_title_is_escaped(tmp_path):
-    from docgen.build import build_one
+    from docgen.jobs.build import build_one
 
     spec = tmp_path / "markup.toml"
     spec.write_text(BASE.replace(

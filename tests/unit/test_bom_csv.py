@@ -8,8 +8,8 @@ import io
 
 import pytest
 
-from docgen.build import design_for
 from docgen.design import Check
+from docgen.jobs.build import design_for
 from docgen.render.bom import bom_csv, neutralise, stress_csv
 from tests.conftest import DATA, ROOT
 

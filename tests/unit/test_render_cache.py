@@ -195,7 +195,7 @@ def test_prefetch_in_worker_processes_gives_the_same_bytes(cache_dir, monkeypatc
 
 
 def test_report_html_is_byte_identical_with_and_without_the_cache(cache_dir, monkeypatch):
-    from docgen.build import design_for
+    from docgen.jobs.build import design_for
     from docgen.render.html import render_html
 
     spec = Path(__file__).resolve().parents[2] / "specs" / "hydroponic-sensor-hub.toml"

@@ -87,7 +87,7 @@ def test_schema_has_no_references_or_nulls_for_editors():
 
 
 def test_results_json_validates(tmp_path):
-    from docgen.build import build_one
+    from docgen.jobs.build import build_one
 
     result = build_one(DATA / "all-pass.toml", tmp_path, pdf=False)
     data = json.loads((result.out_dir / "results.json").read_text(encoding="utf-8"))
@@ -99,7 +99,7 @@ def test_results_json_validates(tmp_path):
 
 
 def test_infeasible_results_json_validates(tmp_path):
-    from docgen.build import build_one
+    from docgen.jobs.build import build_one
 
     spec = tmp_path / "infeasible.toml"
     text = (ROOT / "specs" / "bench-psu-12v-follower.toml").read_text(encoding="utf-8")

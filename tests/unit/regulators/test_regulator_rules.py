@@ -247,7 +247,7 @@ def test_demo_lead_rated_zener_uses_the_lead_path():
 
 def test_self_heating_of_the_w2_zener():
     # W2: 5.6 V, worst-case dissipation 112 mW; illustrative 300 K/W and +0.05 %/K
-    from docgen.regulators.zener_sizing import self_heating
+    from docgen.regulators.zener_part import self_heating
 
     L = Ledger()
     L.given("zener.tempco", "a", 0.0005, "%/degC", "tempco")

@@ -12,7 +12,7 @@ from collections.abc import Iterator
 from contextlib import contextmanager
 from pathlib import Path
 
-from .errors import RenderError
+from ..errors import RenderError
 
 
 def prepare_dir(path: Path) -> Path:

@@ -5,8 +5,11 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from .design import Design
-from .errors import InfeasibleDesign
+from ..design import Design
+from ..errors import InfeasibleDesign
+from ..pipeline import run
+from ..progress import stage
+from ..spec import load_requirements
 from .output import (
     output_lock,
     prepare_dir,
@@ -15,9 +18,6 @@ from .output import (
     safe_stem,
     write_atomic,
 )
-from .pipeline import run
-from .progress import stage
-from .spec import load_requirements
 
 
 @dataclass
@@ -70,9 +70,9 @@ def _build_into(loaded, spec_path: Path, out_dir: Path, pdf: bool) -> BuildResul
         write_atomic(target, json.dumps(payload, sort_keys=True, indent=1) + "\n")
         return BuildResult(spec_path, out_dir, "infeasible", [target], None, str(exc))
 
-    from .render.figures import draw_plots
-    from .render.html import render_html
-    from .render.results_json import results_json
+    from ..render.figures import draw_plots
+    from ..render.html import render_html
+    from ..render.results_json import results_json
 
     with stage("plots and schematic"):
         plots = draw_plots(design)
@@ -85,14 +85,14 @@ def _build_into(loaded, spec_path: Path, out_dir: Path, pdf: bool) -> BuildResul
         target = out_dir / "plots" / f"{name}.svg"
         write_atomic(target, svg)
         files.append(target)
-    from .render.bom import BOM_CSV, STRESS_CSV, bom_csv, stress_csv
+    from ..render.bom import BOM_CSV, STRESS_CSV, bom_csv, stress_csv
 
     for name, data in (("results.json", results), (BOM_CSV, bom_csv(design)),
                        (STRESS_CSV, stress_csv(design)), ("report.html", html)):
         write_atomic(out_dir / name, data)
         files.append(out_dir / name)
     if pdf:
-        from .render.pdf import render_pdf
+        from ..render.pdf import render_pdf
 
         with stage("PDF (WeasyPrint layout and drawing)"):
             pdf_bytes = render_pdf(

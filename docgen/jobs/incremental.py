@@ -79,9 +79,9 @@ def tool_inputs() -> dict[str, Any]:
     """Digests of docgen itself: version, package source, templates, output libraries."""
     from importlib import metadata, resources
 
-    from . import __version__
+    from .. import __version__
 
-    package_dir = Path(__file__).resolve().parent
+    package_dir = Path(__file__).resolve().parents[1]  # the whole docgen package
     templates_dir = Path(str(resources.files("docgen.templates")))
     libraries = {}
     for name in _OUTPUT_LIBRARIES:
@@ -161,8 +161,8 @@ class Inputs:
 
 
 def current_inputs(spec: Path, *, pdf: bool) -> Inputs:
-    from .errors import SpecError
-    from .textfile import SPEC_MAX_BYTES, read_bounded
+    from ..errors import SpecError
+    from ..textfile import SPEC_MAX_BYTES, read_bounded
 
     try:  # bounded, and regular files only: the build itself reports what is wrong
         data: bytes | None = read_bounded(spec, SPEC_MAX_BYTES)
@@ -357,8 +357,8 @@ def build_incremental(spec: Path, out_root: Path, *, pdf: bool = True, force: bo
 
     out_dir = out_dir_for(spec, out_root)
     inputs = current_inputs(spec, pdf=pdf)
+    from ..spec import load_requirements
     from .output import output_lock
-    from .spec import load_requirements
 
     load_requirements(spec)  # bad input is reported before the output folder is touched
     with output_lock(out_dir):

@@ -1,6 +1,6 @@
 """Batch builds: many specs at once, in parallel worker processes, skipping the up-to-date ones.
 
-The parent process checks every spec's stamp first (cheap, see :mod:`docgen.incremental`) and
+The parent process checks every spec's stamp first (cheap, see :mod:`docgen.jobs.incremental`) and
 sends only the stale ones to a process pool, so a run with nothing to do starts no workers. One
 spec's error (bad input, unwritable output) is reported on its line and does not stop the others.
 """
@@ -13,7 +13,7 @@ from collections.abc import Callable
 from pathlib import Path
 from typing import TextIO
 
-from .errors import DocgenError, SpecError, SpecIssue, close_quotes, printable
+from ..errors import DocgenError, SpecError, SpecIssue, close_quotes, printable
 from .incremental import Outcome, build_incremental, check_up_to_date, out_dir_for
 
 
