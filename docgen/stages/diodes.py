@@ -42,12 +42,14 @@ TYPES = {
     "silicon": DiodeType(
         "silicon", n=1.8, rs_share=0.05, eg=1.11, xti=3.0,
         source="silicon pn rectifier: n = 1.8 (high-level injection at rated current) and a "
-               "series resistance dropping 5 % of V_F at the stated current, from memory; "
+               "series resistance dropping 5 % of V_F at the stated current ([CP-DIODE-MODEL], "
+               "from memory); "
                "Eg = 1.11 V, XTI = 3 from " + SZE),
     "schottky": DiodeType(
         "schottky", n=1.1, rs_share=0.15, eg=0.69, xti=2.0,
         source="Schottky rectifier: n = 1.1 and a series resistance dropping 15 % of V_F at the "
-               "stated current, barrier height 0.69 V, from memory; XTI = 2 from " + SZE),
+               "stated current, barrier height 0.69 V ([CP-DIODE-MODEL], from memory); "
+               "XTI = 2 from " + SZE),
 }
 
 
