@@ -113,7 +113,8 @@ FIGURES = {
     "schematic": ("schematic", "Circuit drawn from the design: designators, values and library "
                   "part ids as chosen."),
     "waveforms_trough": ("waveforms", "Trough corner: low line, full load, capacitance at its low "
-                         "tolerance, zener high, resistor high. Secondary voltage and current, "
+                         "tolerance, zener high, resistor high, rectifier junction at the "
+                         "lowest ambient. Secondary voltage and current, "
                          "capacitor voltage, one diode's current pulses, output voltage."),
     "waveforms_nominal": ("waveforms", "Nominal mains, full load, nominal-side corner."),
     "waveforms_trough_neg": ("waveforms", "Negative rail at its trough corner, shown as "
