@@ -142,3 +142,51 @@ def test_hot_corners_drop_less_than_cold_ones(silicon_and_schottky):
         assert pairs == len(rows) // 2
         model = next(a for a in d.assumptions if a.id == "assume.diode_model")
         assert f"{cold:g} degC and {hot:g} degC" in model.text
+
+
+def _ledger_for_record(t_min: float = 0.0, t_max: float = 50.0):
+    from docgen.trace import Ledger
+
+    L = Ledger()
+    L.given("rect.i_peak", "", 1.5, "A", "")
+    L.given("env.t_min", "", t_min, "degC", "")
+    L.given("env.t_max", "", t_max, "degC", "")
+    return L
+
+
+def test_library_part_with_two_points_is_fitted_through_both():
+    from types import SimpleNamespace
+
+    from docgen.parts.models import Diode
+    from docgen.spec.models import Rectifier
+    from docgen.stages.diodes import record_diode
+
+    part = Diode(id="T-D2", v_rrm="100 V", i_f_avg="1 A", i_fsm="30 A", v_f="1.0 V",
+                 v_f2="0.7 V", v_f2_current="20 mA")
+    ctx = SimpleNamespace(spec=SimpleNamespace(rectifier=Rectifier(diode_drop="1.2 V")),
+                          conflicts=[])
+    L = _ledger_for_record()
+    record_diode(ctx, L, part)
+    for v, i in ((1.0, 1.0), (0.7, 0.02)):
+        assert shockley(i, L["rect.d_is"], L["rect.d_n"], L["rect.d_rs"]) == pytest.approx(
+            v, abs=FIT_TOL)
+    # the file's own drop is not replaced silently: a visible note says what uses which
+    assert [name for name, _ in ctx.conflicts] == ["rectifier.diode_drop"]
+    assert L["rect.d_vf_hot"] < L["rect.d_vf"] < L["rect.d_vf_cold"]
+
+
+def test_file_drop_is_stated_at_the_charging_peaks_unless_a_current_is_given():
+    from types import SimpleNamespace
+
+    from docgen.spec.models import Rectifier
+    from docgen.stages.diodes import record_diode
+
+    for rect, i_f in ((Rectifier(), 1.5), (Rectifier(diode_drop_current="0.4 A"), 0.4)):
+        L = _ledger_for_record()
+        record_diode(SimpleNamespace(spec=SimpleNamespace(rectifier=rect), conflicts=[]), L, None)
+        assert L["rect.d_if"] == i_f and L["rect.d_vf"] == 1.0
+    # a Schottky rectifier defaults to a Schottky drop and law
+    L = _ledger_for_record()
+    rect = Rectifier(diode_type="schottky")
+    record_diode(SimpleNamespace(spec=SimpleNamespace(rectifier=rect), conflicts=[]), L, None)
+    assert L["rect.d_vf"] == 0.55 and L["rect.d_xti"] == 2.0
