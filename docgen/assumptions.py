@@ -6,9 +6,10 @@ from .trace import Assumption
 
 
 def design_assumptions(reg, n_corners: int, raised: dict[str, str],
-                       conflicts: list[tuple[str, str]] = ()) -> list[Assumption]:
+                       conflicts: list[tuple[str, str]] = (), values=None) -> list[Assumption]:
     """Assumptions of one rail: the engine's model of this regulator kind at its own number of
-    corners, the transformer and capacitor models, and every floor the engine raised."""
+    corners, the transformer, diode and capacitor models, the mains frequencies, and every
+    floor the engine raised. ``values``: the design's ledger (or a mapping of its values)."""
     out = [
         Assumption("assume.engine",
                    f"Ratings and checks come from the waveform engine at {n_corners} worst-case "
@@ -26,6 +27,8 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str],
                    "Voltage ratings (capacitor, diode reverse voltage) use the no-load peak at "
                    "high line with the diode drop neglected (conservative).", "common practice"),
     ]
+    if values is not None and "rect.d_is" in values:
+        out += _diode_and_frequency(values)
     if "zener voltage" in reg.corner_axis_names:
         out.append(Assumption(
             "assume.zener_model",
@@ -65,4 +68,32 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str],
             for name, reason in raised.items()]
     out += [Assumption(f"assume.conflict.{name}", text, "requirements file and parts library")
             for name, text in dict(conflicts).items()]
+    return out
+
+
+def _diode_and_frequency(v) -> list[Assumption]:
+    """The engine's diode as fitted, its junction temperatures, and both mains frequencies."""
+    cold, hot = v["rect.d_t_cold"], v["rect.d_t_hot"]
+    temps = (f"{cold:g} degC and {hot:g} degC (the lowest and highest ambient)" if hot != cold
+             else f"{cold:g} degC (the ambient)")
+    out = [Assumption(
+        "assume.diode_model",
+        f"Each rectifier diode is an exponential junction with series resistance (n = "
+        f"{v['rect.d_n']:.3g}, r_s = {v['rect.d_rs']:.3g} ohm) fitted to its stated forward "
+        f"point, {v['rect.d_vf']:.3g} V at {v['rect.d_if']:.3g} A and {v['rect.d_t0']:g} degC. "
+        f"Its saturation current follows the junction temperature, so its drop falls as it "
+        f"warms; the corners put the junction at {temps}, where it drops "
+        f"{v['rect.d_vf_cold']:.3g} V and {v['rect.d_vf_hot']:.3g} V at that current. Not covered: the rectifier's own self-heating (a warmer "
+        f"junction drops a little less again, raising the highest voltages slightly) and the "
+        f"temperature dependence of r_s.",
+        "S. M. Sze, K. K. Ng, Physics of Semiconductor Devices, 3rd ed., sections 2.3 and 3.3 "
+        "(temperature law; from memory); forward point from the part or the requirements file")]
+    if "mains.freq_also" in v:
+        lo, hi = sorted((v["mains.freq_given"], v["mains.freq_also"]))
+        out.append(Assumption(
+            "assume.dual_frequency",
+            f"The product runs from {lo:g} Hz and {hi:g} Hz mains. The parts are sized at "
+            f"{lo:g} Hz (the larger ripple), and every worst-case corner is simulated at both "
+            f"frequencies, so each worst-case figure and check is the worse of the two (the "
+            f"corner names say which).", "common practice"))
     return out

@@ -213,7 +213,8 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
     cautions += rating_cautions(checks)
     assumptions = list(a.assumptions) + [SPLIT_ASSUMPTION] + [
         dataclasses.replace(x, id=NEG + x.id, text="Negative rail: " + x.text)
-        for x in b.assumptions if x.id.startswith("assume.raised.")]
+        for x in b.assumptions if x.id.startswith("assume.raised.")
+        or (x.id == "assume.diode_model" and x not in a.assumptions)]
     waveforms = dict(a.waveforms)
     waveforms.update({"neg_" + k: v for k, v in b.waveforms.items()})
     corners = [{**r, "name": "+ rail: " + r["name"]} for r in a.corners]

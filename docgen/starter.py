@@ -42,6 +42,7 @@ ambient_max = "40 degC"
 
 [rectifier]
 topology = "bridge"
+# diode_type = "silicon"              # or "schottky" (sets the engine diode's defaults)
 # diode_drop = "1.0 V"                # per diode at the charging peaks
 
 # [reservoir]                         # give capacitance + voltage_rating to fix the part

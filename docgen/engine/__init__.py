@@ -8,7 +8,9 @@ Circuit model (secondary-referred, SI units)
 --------------------------------------------
 Each conducting path is an EMF ``vpk sin(w t)`` in series with ``r_s``, ``l_s`` and the path's
 diodes (one, or two for a bridge), each an exponential junction
-``i = Is (exp(v / (n Vt)) - 1)`` with series resistance ``diode_rs``, ``Vt = k T / q``. The path
+``i = Is (exp(v / (n Vt)) - 1)`` with series resistance ``diode_rs``, ``Vt = k T / q`` and
+``Is`` at the junction temperature (``circuit.saturation_current``: rises with T, so the drop
+falls by about 2 mV/K for silicon at constant current). The path
 feeds the reservoir capacitor ``c`` (with ``esr``) and the load (see ``Circuit``). Center-tap half
 windings are independent sources (no coupling between their leakage inductances). Reverse
 leakage of the path that is not conducting is neglected (at most ``Is``).

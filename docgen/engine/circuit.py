@@ -21,13 +21,31 @@ K_OVER_Q = 8.617333262e-5
 ZERO_C_IN_K = 273.15
 
 
+def saturation_current(is_ref, n, t_c, t_ref_c, eg, xti):
+    """Junction saturation current at ``t_c`` (degC) from its value ``is_ref`` at ``t_ref_c``.
+
+    Is(T) = Is(T0) (T/T0)^(XTI/n) exp((Eg / (n k/q)) (1/T0 - 1/T)), the emission-coefficient
+    form of the ideal-junction law Is ~ T^XTI exp(-Eg / kT): XTI = 3 and Eg the band gap for a
+    pn junction, XTI = 2 and Eg the barrier height for a Schottky junction (thermionic emission)
+    (S. M. Sze, K. K. Ng, Physics of Semiconductor Devices, 3rd ed., sections 2.3 and 3.3;
+    the emission-coefficient scaling from memory). At constant current the forward drop then
+    falls by (Eg/q + XTI kT/q - V) / T, about 2 mV/K for silicon near 0.6 V.
+    """
+    t = np.asarray(t_c, dtype=float) + ZERO_C_IN_K
+    t0 = np.asarray(t_ref_c, dtype=float) + ZERO_C_IN_K
+    return is_ref * np.exp((xti / n) * np.log(t / t0) + eg / (n * K_OVER_Q) * (1.0 / t0 - 1.0 / t))
+
+
 @dataclass(frozen=True, eq=False)
 class Circuit:
     """Mains transformer -> rectifier -> reservoir capacitor -> load, secondary-referred, SI units.
 
     ``v_rms`` is the open-circuit secondary voltage (center-tap: each half winding); ``r_s`` and
     ``l_s`` are the source resistance and leakage inductance of each conducting path (center-tap:
-    of each half winding). Loads:
+    of each half winding). The diodes: saturation current ``diode_is`` stated at ``diode_t_ref``
+    (degC), emission coefficient ``diode_n``, series resistance ``diode_rs``, junction temperature
+    ``diode_t_c`` (degC); the saturation current follows ``saturation_current`` with the
+    activation energy ``diode_eg`` (eV) and exponent ``diode_xti``. Loads:
 
     - ``current``: constant current ``i_load`` from the capacitor at any voltage.
     - ``resistor``: ``r_load``.
@@ -53,6 +71,9 @@ class Circuit:
     diode_n: Any = 1.8
     diode_rs: Any = 0.05
     diode_t_c: Any = 25.0
+    diode_t_ref: Any = 25.0
+    diode_eg: Any = 1.11
+    diode_xti: Any = 3.0
     load: str = "current"
     i_load: Any = 0.0
     r_load: Any = math.inf
@@ -83,6 +104,9 @@ _BOUNDS = {
     "diode_n": (0.0, False),
     "diode_rs": (0.0, True),
     "diode_t_c": (-ZERO_C_IN_K, False),
+    "diode_t_ref": (-ZERO_C_IN_K, False),
+    "diode_eg": (0.0, True),
+    "diode_xti": (0.0, True),
     "i_load": (0.0, True),
     "r_load": (0.0, False),
     "i_q": (0.0, True),
@@ -153,7 +177,8 @@ class Params:
         self.omega = 2.0 * math.pi * a["freq"]
         self.mvt = self.m * a["diode_n"] * K_OVER_Q * (a["diode_t_c"] + ZERO_C_IN_K)
         self.r_lin = a["r_s"] + self.m * a["diode_rs"]
-        self.isat = a["diode_is"]
+        self.isat = saturation_current(a["diode_is"], a["diode_n"], a["diode_t_c"],
+                                       a["diode_t_ref"], a["diode_eg"], a["diode_xti"])
 
     def __getattr__(self, name: str) -> np.ndarray:
         try:

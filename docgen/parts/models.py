@@ -128,11 +128,37 @@ class Transformer(_PartBase):
 
 
 class _Rectifier(_PartBase):
+    """Ratings, and the forward characteristic the waveform engine's diode is fitted to:
+    ``v_f`` per diode at ``v_f_current`` (the average current rating when absent), an optional
+    second point (``v_f2`` at ``v_f2_current``) or ``series_resistance``, and the junction
+    ``technology`` (silicon or schottky) that sets the temperature law."""
+
     v_rrm: Voltage
     i_f_avg: Current
     i_fsm: Current
     v_f: Voltage
     i2t: ChargeIntegral | None = None
+    v_f_current: Current | None = None
+    v_f2: Voltage | None = None
+    v_f2_current: Current | None = None
+    series_resistance: Resistance | None = None
+    technology: _choice("silicon", "schottky") | None = None
+
+    @classmethod
+    def _group_problems(cls, given: Mapping[str, Any]) -> list[str]:
+        if ("v_f2" in given) != ("v_f2_current" in given):
+            return ["give v_f2 and v_f2_current together (a second forward point), or neither"]
+        if "v_f2" in given:
+            v1, v2 = given["v_f"], given["v_f2"]
+            i1 = given.get("v_f_current", given["i_f_avg"])
+            i2 = given["v_f2_current"]
+            if i1 == i2 or (v2 - v1) * (i2 - i1) <= 0:
+                return ["the forward voltage must rise with the current: v_f2 at v_f2_current "
+                        f"against v_f at {i1:g} A"]
+        rs = given.get("series_resistance")
+        if rs is not None and rs * given.get("v_f_current", given["i_f_avg"]) >= given["v_f"]:
+            return ["series_resistance drops more than v_f at its current"]
+        return []
 
 
 class Diode(_Rectifier):

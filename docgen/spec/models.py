@@ -205,11 +205,36 @@ class Rectifier(Section):
         "[[output]] tables, one of each polarity).",
     )
     diode_drop: Voltage = q(
-        1.0, "V", "Forward drop of one diode at the charging-current peaks.",
-        "common practice: ~1 V for a silicon rectifier at its charging peaks",
+        1.0, "V", "Forward drop of one diode at the charging-current peaks (or at "
+        "diode_drop_current). Default 1.0 V for silicon, 0.55 V for schottky. Sizes the "
+        "transformer by hand; without a library part the waveform engine's diode is fitted to it.",
+        "common practice: ~1 V for a silicon rectifier at its charging peaks, ~0.5 V for a "
+        "Schottky rectifier (from memory)",
     )
+    diode_type: Literal["silicon", "schottky"] = Field(
+        default="silicon",
+        description="Junction type of the rectifier: silicon (pn) or schottky. Sets the "
+        "engine diode's defaults and its temperature law (a library part's technology "
+        "overrides it, with a note).",
+    )
+    diode_drop_current: PositiveCurrent | None = q(
+        None, "A", "Current at which diode_drop is stated (the hand estimate of the "
+        "charging-current peaks when absent).")
+    diode_resistance: NonNegResistance | None = q(
+        None, "ohm", "Series resistance of one diode for the engine (when absent: a default "
+        "share of diode_drop by diode_type).")
     part: str = Field(default="", max_length=80,
                       description="Library part id of a fixed bridge or diode (needs [parts]).")
+
+
+    @model_validator(mode="after")
+    def _drop_by_type(self) -> Rectifier:
+        if "diode_drop" not in self.model_fields_set and self.diode_type == "schottky":
+            object.__setattr__(self, "diode_drop", 0.55)
+        if (self.diode_resistance is not None and self.diode_drop_current is not None
+                and self.diode_resistance * self.diode_drop_current >= self.diode_drop):
+            raise ValueError("diode_resistance x diode_drop_current must stay below diode_drop")
+        return self
 
 
 class Reservoir(Section):

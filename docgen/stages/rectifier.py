@@ -10,6 +10,7 @@ from ..errors import InfeasibleDesign
 from ..topology import topology
 from ..trace import Ledger
 from .context import Pick, SizingContext, require
+from .diodes import record_diode
 
 WRITES = ("rect.", "margins.diode_", "transformer.i_rms")
 TITLE = "Rectifier"
@@ -114,6 +115,7 @@ def size_rectifier(ctx: SizingContext, L: Ledger) -> None:
     L.calc("transformer.i_rms", eq.SEC_RMS_CURRENT, r"I_{sec,rms}", "A",
            "Winding RMS current (high line, table ratio)",
            {"k": "margins.secondary_rms_factor", "i": "regulator.i_in_max"}, lambda k, i: k * i)
+    record_diode(ctx, L, part)
 
 
 def _standard_classes(ctx: SizingContext, L: Ledger, ref: str) -> None:

@@ -1,10 +1,12 @@
 """Worst-case corners and Monte Carlo samples of one design, run through the waveform engine.
 
 Corners combine the extremes of every tolerance that moves a checked quantity: mains low /
-nominal / high, load least / full, capacitance at -tol / +tol, and the regulator kind's own
+nominal / high, load least / full, capacitance at -tol / +tol, the regulator kind's own
 axes (a zener shunt adds its zener voltage at the lower / upper extreme and its series resistor
-at -tol / +tol: 3 x 2 x 2 x 2 x 2 = 48 points; a three-terminal regulator adds none: 12). Each
-check reports the corner where it is worst.
+at -tol / +tol; a three-terminal regulator its output setpoint), the rectifier's junction at the
+lowest and highest ambient (a cold diode drops more, a hot one less), and, for a product that
+must run from two mains frequencies, both frequencies (the lower gives the deeper trough, the
+higher the taller, narrower charging pulses). Each check reports the corner where it is worst.
 
 Monte Carlo draws every tolerance independently and uniformly within its band (uniform is the
 conservative choice when the distribution is unknown: common practice), with the seed from the
@@ -22,6 +24,7 @@ from typing import Any
 import numpy as np
 
 from ..engine import Circuit, simulate, switch_on
+from ..stages.diodes import engine_diode
 from ..topology import topology as topology_record
 from ..trace import Ledger
 
@@ -31,7 +34,8 @@ MODEL_INPUTS = (
     "transformer.l_s", "reservoir.c", "reservoir.tol", "reservoir.esr", "zener.r",
     "zener.r_tol", "zener.v_knee_max", "zener.v_knee_min", "zener.v_max", "zener.v_min",
     "zener.r_z", "output.i_max", "output.i_min_worst", "reg.i_q", "reg.dropout",
-    "reg.v_out_min", "q.i_r1",
+    "reg.v_out_min", "q.i_r1", "rect.d_is", "rect.d_n", "rect.d_rs", "rect.d_t0", "rect.d_eg",
+    "rect.d_xti", "rect.d_t_cold", "rect.d_t_hot", "mains.freq_also",
 )
 
 
@@ -57,6 +61,8 @@ class PointSet:
     c: np.ndarray  # F
     v_z: np.ndarray  # V, zener knee voltage
     r: np.ndarray  # ohm
+    t_d: np.ndarray  # degC, rectifier junction temperature
+    freq: np.ndarray  # Hz, mains frequency
     name: list[str]
     line_name: list[str]
     load_name: list[str]
@@ -108,17 +114,34 @@ def corner_points(L: Ledger, reg) -> PointSet:
     caps = [(f"C -{tc * 100:g} %", c * (1 - tc)), (f"C +{tc * 100:g} %", c * (1 + tc))]
     zeners = reg.zener_axis(L)
     resistors = reg.resistor_axis(L)
-    rows = list(itertools.product(lines, loads, caps, zeners, resistors))
+    rows = list(itertools.product(lines, loads, caps, zeners, resistors, diode_temperatures(L),
+                                  frequencies(L)))
     return PointSet(
         line=np.array([x[0][1] for x in rows]),
         load=np.array([x[1][1] for x in rows]),
         c=np.array([x[2][1] for x in rows]),
         v_z=np.array([x[3][1] for x in rows]),
         r=np.array([x[4][1] for x in rows]),
+        t_d=np.array([x[5][1] for x in rows]),
+        freq=np.array([x[6][1] for x in rows]),
         name=[", ".join(part[0] for part in x if part[0]) for x in rows],
         line_name=[x[0][0] for x in rows],
         load_name=[x[1][0] for x in rows],
     )
+
+
+def diode_temperatures(L: Ledger) -> list[tuple[str, float]]:
+    """The rectifier junction at the cold and the hot corners (one value if they coincide)."""
+    cold, hot = L["rect.d_t_cold"], L["rect.d_t_hot"]
+    return [(f"diodes {t:g} degC", t) for t in sorted({cold, hot})]
+
+
+def frequencies(L: Ledger) -> list[tuple[str, float]]:
+    """Both mains frequencies of a dual-frequency product, named, lower first; the one
+    frequency otherwise (unnamed: every corner has it)."""
+    if "mains.freq_also" not in L:
+        return [("", L["mains.freq"])]
+    return [(f"{f:g} Hz", f) for f in sorted({L["mains.freq_given"], L["mains.freq_also"]})]
 
 
 def sample_points(L: Ledger, n: int, seed: int, t_min: float, t_max: float, reg) -> PointSet:
@@ -129,22 +152,28 @@ def sample_points(L: Ledger, n: int, seed: int, t_min: float, t_max: float, reg)
     c = L["reservoir.c"] * rng.uniform(1 - L["reservoir.tol"], 1 + L["reservoir.tol"], n)
     temp = rng.uniform(t_min, t_max, n)  # drawn for every kind so samples stay comparable
     v_z, r = reg.sample_axes(L, rng, n, temp)
-    return PointSet(line, load, c, v_z, r, name=[f"sample {k + 1}" for k in range(n)],
+    freqs = [f for _, f in frequencies(L)]
+    freq = rng.choice(freqs, n) if len(freqs) > 1 else np.full(n, freqs[0])
+    # the rectifier junction at the sample's ambient (self-heating not estimated)
+    return PointSet(line, load, c, v_z, r, temp, freq, name=[f"sample {k + 1}" for k in range(n)],
                     line_name=["sample"] * n, load_name=["sample"] * n)
 
 
 def _circuit(L: Ledger, pts: PointSet, topology: str, reg) -> Circuit:
     common = dict(topology=topology_record(topology).engine, v_rms=L["transformer.v_nl"] * pts.line,
-                  freq=L["mains.freq"], r_s=L["transformer.r_w"], l_s=L["transformer.l_s"],
-                  c=pts.c, esr=L["reservoir.esr"])
+                  freq=pts.freq, r_s=L["transformer.r_w"], l_s=L["transformer.l_s"],
+                  c=pts.c, esr=L["reservoir.esr"], **engine_diode(L, pts.t_d))
     return reg.circuit(L, pts, common)
+
+
+AXES = ("line", "load", "c", "v_z", "r", "t_d", "freq")
 
 
 def _concat(a: PointSet, b: PointSet | None) -> PointSet:
     if b is None:
         return a
     return PointSet(*(np.concatenate([getattr(a, f), getattr(b, f)])
-                      for f in ("line", "load", "c", "v_z", "r")),
+                      for f in AXES),
                     name=a.name + b.name, line_name=a.line_name + b.line_name,
                     load_name=a.load_name + b.load_name)
 
@@ -165,11 +194,12 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
     corners = corner_points(L, reg)
     mc = sample_points(L, samples, seed, t_min, t_max, reg) if samples > 0 else None
     pts = _concat(corners, mc)
-    # waveforms for the nominal corner and the low-line, full-load, C low corner
+    # waveforms for the nominal corner and the low-line, full-load, C low corner (there with
+    # the cold diode and the lower frequency: the deepest trough)
     nominal = next(k for k, n in enumerate(corners.name)
                    if n.startswith("nominal mains, full load, C -"))
     trough = max((k for k, n in enumerate(corners.name) if n.startswith("low line, full load, C -")),
-                 key=lambda k: (corners.v_z[k], corners.r[k]))
+                 key=lambda k: (corners.v_z[k], corners.r[k], -corners.t_d[k], -corners.freq[k]))
     ss = simulate(_circuit(L, pts, topology, reg), keep_waveforms=(nominal, trough))
     metrics: dict[str, Any] = {name: getattr(ss, name) for name in (
         "v_c_max", "v_c_min", "v_c_mean", "ripple_pp", "conduction_angle", "i_d_peak",
@@ -195,17 +225,21 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
 
 
 def _surge(L: Ledger, corners: PointSet, ss, topology: str, reg) -> dict:
-    """Switch-on transient at high line, largest capacitance, closed at the crest, with the least
-    and with the full load (the load lengthens the charging and so adds I^2 t; both run in one
-    vectorised call). Each runs until its pulses fall to 1.1 x its steady-state repetitive peak;
-    the larger peak and the larger I^2 t are reported."""
-    top = max(range(len(corners)), key=lambda j: (corners.line[j], corners.c[j]))
-    pick = [j for j in range(len(corners))
-            if corners.line[j] == corners.line[top] and corners.c[j] == corners.c[top]
-            and corners.v_z[j] == corners.v_z[top] and corners.r[j] == corners.r[top]]
-    pick = sorted({min(pick, key=lambda j: corners.load[j]),
-                   max(pick, key=lambda j: corners.load[j])})
-    sub = PointSet(*(getattr(corners, f)[pick] for f in ("line", "load", "c", "v_z", "r")),
+    """Switch-on transient at high line, largest capacitance, hot rectifier (the least drop),
+    closed at the crest, with the least and with the full load (the load lengthens the charging
+    and so adds I^2 t), at each mains frequency; all run in one vectorised call. Each runs until
+    its pulses fall to 1.1 x its steady-state repetitive peak; the larger peak and the larger
+    I^2 t are reported."""
+    top = max(range(len(corners)), key=lambda j: (corners.line[j], corners.c[j], corners.t_d[j]))
+    same = [j for j in range(len(corners))
+            if all(getattr(corners, f)[j] == getattr(corners, f)[top]
+                   for f in ("line", "c", "v_z", "r", "t_d"))]
+    pick = set()
+    for f in sorted({float(corners.freq[j]) for j in same}):
+        at_f = [j for j in same if corners.freq[j] == f]
+        pick |= {min(at_f, key=lambda j: corners.load[j]), max(at_f, key=lambda j: corners.load[j])}
+    pick = sorted(pick)
+    sub = PointSet(*(getattr(corners, f)[pick] for f in AXES),
                    name=[corners.name[j] for j in pick],
                    line_name=[corners.line_name[j] for j in pick],
                    load_name=[corners.load_name[j] for j in pick])
@@ -216,9 +250,9 @@ def _surge(L: Ledger, corners: PointSet, ss, topology: str, reg) -> dict:
         return {"ok": False}
     kp = int(np.argmax(so.i_peak))
     ki = int(np.argmax(so.i2t))
-    freq = L["mains.freq"]
     return {"ok": True, "peak": float(so.i_peak[kp]), "i2t": float(so.i2t[ki]),
-            "first_i2t": float(so.first_i2t[ki]), "cycles": float(so.duration[ki] * freq),
+            "first_i2t": float(so.first_i2t[ki]),
+            "cycles": float(so.duration[ki] * sub.freq[ki]),
             "corner": sub.name[ki], "settled": bool(so.settled[ki])}
 
 
@@ -232,7 +266,8 @@ def corner_rows(cr: CornerResult) -> list[dict]:
         row = {"name": cr.corners.name[k], "converged": bool(cr.converged[k]),
                "line_factor": float(cr.corners.line[k]), "load": float(cr.corners.load[k]),
                "c": float(cr.corners.c[k]), "v_z": float(cr.corners.v_z[k]),
-               "r": float(cr.corners.r[k])}
+               "r": float(cr.corners.r[k]), "t_diode": float(cr.corners.t_d[k]),
+               "freq": float(cr.corners.freq[k])}
         for key in keys:
             v = float(cr.metrics[key][k])
             row[key] = v if math.isfinite(v) else None

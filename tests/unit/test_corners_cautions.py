@@ -31,14 +31,16 @@ def corner_ledger() -> Ledger:
                      # zener voltage extremes with self-heating, and the data for the samples'
                      # hand worst-case self-heating: 0.4 W x 100 K/W = 40 K, 0.06 %/K
                      ("zener.v_min_hot", 8.5), ("zener.v_max_hot", 9.8), ("zener.p", 0.4),
-                     ("zener.theta_ja", 100.0), ("zener.tempco", 0.0006)):
+                     ("zener.theta_ja", 100.0), ("zener.tempco", 0.0006),
+                     # the rectifier junction at the ambient extremes; one mains frequency
+                     ("rect.d_t_cold", 0.0), ("rect.d_t_hot", 50.0), ("mains.freq", 50.0)):
         L.given(vid, vid, val, "", vid)
     return L
 
 
 def test_zener_corners_are_the_full_cross_product():
     pts = corner_points(corner_ledger(), regulator("zener"))
-    assert len(pts) == 3 * 2 * 2 * 2 * 2  # 48
+    assert len(pts) == 3 * 2 * 2 * 2 * 2 * 2  # 96: the last axis is the diode temperature
     # hand values: 230 V -10 % / +6 % -> 0.90, 1.00, 1.06; 2200 uF +/-20 % -> 1760 / 2640 uF;
     # 150 ohm +/-5 % -> 142.5 / 157.5 ohm
     assert sorted(set(np.round(pts.line, 12))) == [0.9, 1.0, 1.06]
@@ -48,8 +50,10 @@ def test_zener_corners_are_the_full_cross_product():
     # hot extremes: 8.5 - 2 x 0.02 = 8.46 V and 9.8 - 0.04 = 9.76 V
     assert sorted(set(np.round(pts.v_z, 12))) == [8.46, 9.76]
     assert sorted(set(pts.load)) == [0.0, 0.04]
-    assert len(set(pts.name)) == 48
-    k = pts.name.index("low line, full load, C -20 %, V_Z high, R +5 %")
+    assert sorted(set(pts.t_d)) == [0.0, 50.0] and set(pts.freq) == {50.0}
+    assert len(set(pts.name)) == 96
+    k = pts.name.index("low line, full load, C -20 %, V_Z high, R +5 %, diodes 50 degC")
+    assert pts.t_d[k] == 50.0
     assert (pts.line[k], pts.load[k]) == (0.9, 0.04)
     assert pts.v_z[k] == pytest.approx(9.76, rel=1e-12)
     assert pts.c[k] == pytest.approx(1760e-6) and pts.r[k] == pytest.approx(157.5)
@@ -63,7 +67,7 @@ def test_follower_uses_the_zener_voltage_and_series_kinds_drop_it():
     L.given("reg.v_out_max", "", 5.2, "V", "")
     three = corner_points(L, regulator("three-terminal"))
     # mains x load x capacitance x the regulator's output setpoint at its tolerance extremes
-    assert len(three) == 3 * 2 * 2 * 2
+    assert len(three) == 3 * 2 * 2 * 2 * 2  # ... x the diode junction cold / hot
     assert sorted(set(three.v_z)) == [4.8, 5.2] and "V_Z" not in " ".join(three.name)
     assert set(three.r) == {1.0}  # no series resistor axis
 

@@ -38,7 +38,8 @@ def test_resistor_drops_the_requested_voltage_at_full_load(design):
 
 
 def test_every_corner_obeys_ohms_law(design):
-    assert len(design.corners) == 3 * 2 * 2 * 2  # mains x load x C x R: no zener axis
+    # mains x load x C x R x diode junction cold / hot: no zener axis
+    assert len(design.corners) == 3 * 2 * 2 * 2 * 2
     for row in design.corners:
         drop = row["load"] * row["r"]
         assert row["v_out_min"] == pytest.approx(row["v_c_min"] - drop, rel=1e-9)
@@ -56,7 +57,7 @@ def test_checks_and_bom_come_from_the_kind(design):
     assert power.value == pytest.approx(worst, rel=1e-9)
     assert [p.ref for p in design.parts if p.kind == "resistor"] == ["R1"]
     engine = next(a for a in design.assumptions if a.id == "assume.engine")
-    assert "24 worst-case corners" in engine.text and "dropping resistor" in engine.text
+    assert "48 worst-case corners" in engine.text and "dropping resistor" in engine.text
     assert not any(a.id == "assume.zener_model" for a in design.assumptions)
 
 
