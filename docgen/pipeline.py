@@ -91,6 +91,14 @@ def _guarded(fn: Callable[[], Any]) -> Any:
         raise InfeasibleDesign(undefined_text(exc)) from None
 
 
+def size_pass(ctx: SizingContext, reg) -> Ledger:
+    """One sizing pass with the floors ``ctx`` holds (public for the design-space search, which
+    sizes many candidates and verifies them together: docgen.explore)."""
+    ctx.picks.clear()
+    ctx.conflicts.clear()
+    return _guarded(partial(_size, ctx, reg))
+
+
 def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     """Size, verify, check and collect everything for one loaded requirements file.
 
