@@ -115,7 +115,7 @@ def _steady(live: list[_State], topology: str, reg) -> None:
     if not live:
         return
     pts = [corner_points(st.L, reg) for st in live]
-    circuits = [(design_circuit(st.L, p, topology, reg), len(p)) for st, p in zip(live, pts)]
+    circuits = [(design_circuit(st.L, p, topology, reg), len(p)) for st, p in zip(live, pts, strict=True)]
     ss = simulate(_joined(circuits))
     start = 0
     for st, p in zip(live, pts, strict=True):
@@ -144,7 +144,7 @@ def _surge(live: list[_State], topology: str, reg) -> None:
     subs: list[tuple[PointSet, np.ndarray]] = [
         surge_points(st.cr.corners, st.cr.corner_metric("i_d_peak")) for st in live]
     circuits = [(design_circuit(st.L, sub, topology, reg), len(sub))
-                for st, (sub, _) in zip(live, subs)]
+                for st, (sub, _) in zip(live, subs, strict=True)]
     so = switch_on(_joined(circuits), steps_per_period=SURGE_STEPS, max_cycles=SURGE_CYCLES,
                    settle_peak=np.concatenate([ref for _, ref in subs]))
     start = 0

@@ -23,7 +23,8 @@ from .batch import Verdict, verify
 from .bounds import lower_cost, prune
 from .objectives import OBJECTIVES, rank_key
 
-BATCH = 64  # candidates per engine call (the switch-on run costs about the same for 2 or 128 points)
+# candidates per engine call (the switch-on run costs about the same for 2 or 128 points)
+BATCH = 64
 DEFAULT_BUDGET = 2000  # candidates verified by the engine at most
 
 
