@@ -115,7 +115,8 @@ def _steady(live: list[_State], topology: str, reg) -> None:
     if not live:
         return
     pts = [corner_points(st.L, reg) for st in live]
-    circuits = [(design_circuit(st.L, p, topology, reg), len(p)) for st, p in zip(live, pts, strict=True)]
+    circuits = [(design_circuit(st.L, p, topology, reg), len(p))
+                for st, p in zip(live, pts, strict=True)]
     ss = simulate(_joined(circuits))
     start = 0
     for st, p in zip(live, pts, strict=True):
