@@ -126,6 +126,10 @@ def _parser() -> argparse.ArgumentParser:
     b.add_argument("-j", "--jobs", type=_positive_int, default=None, metavar="N",
                    help="worker processes for several specs (default: number of CPUs)")
     _output_options(b, "print the time of each stage of a single build on stderr")
+    from .explore.command import add_design_option
+    from .explore.command import add_parser as add_explore
+
+    add_design_option(b)
 
     c = _sub(sub, "check", "validate, size and check; print the result",
              "Validate and compute without writing files; print each failing or marginal "
@@ -166,6 +170,8 @@ def _parser() -> argparse.ArgumentParser:
     s.add_argument("which", choices=("requirements", "results", "check", "build", "diff"),
                    help="requirements file, results.json, or the --format json output of "
                    "check, build or diff")
+
+    add_explore(sub)
 
     k = _sub(sub, "completion", "print a shell completion script",
              "Print a completion script for bash or zsh, generated from docgen's own "
@@ -336,6 +342,10 @@ def _cmd_build(args) -> int:
 
         raise SpecError("-", [SpecIssue("", "build reads specs from files (the report names "
                                             "and attaches the file); '-' works with check")])
+    if args.design == "best":
+        from .explore.command import build_best
+
+        return build_best(specs, args)
     if len(specs) == 1 and not any(item.is_dir() for item in args.specs):
         return _build_single(specs[0], args)
     return _build_batch(specs, args)
@@ -505,8 +515,10 @@ def main(argv: list[str] | None = None) -> int:
     if args.command is None:
         parser.print_help()
         return 2
+    from .explore.command import handle as _cmd_explore
+
     handlers = {"build": _cmd_build, "check": _cmd_check, "diff": _cmd_diff, "new": _cmd_new,
-                "schema": _cmd_schema, "completion": _cmd_completion}
+                "schema": _cmd_schema, "completion": _cmd_completion, "explore": _cmd_explore}
     try:
         return handlers[args.command](args)
     except DocgenError as exc:

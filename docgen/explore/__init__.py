@@ -7,8 +7,5 @@ enumerates the library's combinations of transformer, rectifier, capacitor and r
 the pipeline's own stages and verifies them at their worst corners in one engine call per batch
 (``batch``), and ranks the feasible ones (``objectives``, ``search``). The greedy design is
 always a candidate, so the search never returns a worse design than ``docgen build``.
+The command line is in ``command``; nothing is imported here, so the CLI starts fast.
 """
-
-from .search import SearchResult, search
-
-__all__ = ["SearchResult", "search"]

@@ -36,8 +36,9 @@ class SearchResult:
     space_size: int  # every combination of the library's parts
     bound_parts: Counter  # parts removed by a single-part bound, by reason
     bound_combos: Counter  # combinations removed by a pair bound, by reason
-    candidates: int  # combinations left after the bounds
+    candidates: int  # combinations left after the bounds (and the greedy design)
     verdicts: list[Verdict]  # every candidate verified, greedy first
+    bounded_out: int = 0  # combinations the hand bounds ruled out
     skipped_by_cost: int = 0  # left unverified: cannot be cheaper than the best found
     budget: int = DEFAULT_BUDGET
     budget_reached: bool = False
@@ -93,8 +94,11 @@ def greedy_candidate(loaded: LoadedSpec, free: list[space.Axis]) -> tuple:
 
 
 def search(loaded: LoadedSpec, *, objective: str = "cost", budget: int = DEFAULT_BUDGET,
-           exhaustive: bool = False, batch: int = BATCH) -> SearchResult:
-    """Search the parts library for the best design of ``loaded`` by ``objective``."""
+           exhaustive: bool = False, batch: int = BATCH, greedy: bool = True) -> SearchResult:
+    """Search the parts library for the best design of ``loaded`` by ``objective``.
+
+    ``greedy`` also builds `docgen build`'s own design and verifies it first (its cost then
+    bounds the search from the start); the sensitivity runs leave it out."""
     if objective not in OBJECTIVES:
         raise ValueError(f"objective must be one of {', '.join(OBJECTIVES)}")
     library = _library(loaded)
@@ -105,16 +109,20 @@ def search(loaded: LoadedSpec, *, objective: str = "cost", budget: int = DEFAULT
     size = math.prod(len(a.parts) for a in free)
     parts_out: Counter = Counter()
     combos_out: Counter = Counter()
-    with stage("greedy design (docgen build's own sizing)"):
-        greedy, g_status, g_reason = greedy_candidate(loaded, free)
+    want_greedy = greedy
+    greedy, g_status, g_reason = None, "not run", ""
+    if want_greedy:
+        with stage("greedy design (docgen build's own sizing)"):
+            greedy, g_status, g_reason = greedy_candidate(loaded, free)
     with stage("hand bounds"):
-        cands = prune(spec, free, parts_out, combos_out)
-    cands.sort(key=lambda c: (lower_cost(c, library, topo), c.choice))
+        survivors = prune(spec, free, parts_out, combos_out)
+    cands = sorted(survivors, key=lambda c: (lower_cost(c, library, topo), c.choice))
     if greedy is not None:
         cands = [greedy] + [c for c in cands if c != greedy]
     result = SearchResult(str(loaded.path), objective, [(a.name, len(a.parts)) for a in free],
                           size, parts_out, combos_out, len(cands), [], budget=budget,
-                          greedy_status=g_status, greedy_reason=g_reason)
+                          greedy_status=g_status, greedy_reason=g_reason,
+                          bounded_out=size - len(survivors))
     best_cost = math.inf
     done = 0
     while done < len(cands):

@@ -84,20 +84,21 @@ def apply(spec: Requirements, cand: Candidate, free: list[Axis]) -> Requirements
     for axis in free:
         pid = cand.part_id(axis.name)
         if pid:
-            out = _set(out, axis.field, pid)
+            out = set_field(out, axis.field, pid)
     return out
 
 
-def _set(model: Any, path: str, value: Any) -> Any:
+def set_field(model: Any, path: str, value: Any) -> Any:
+    """A copy of ``model`` with the field at ``path`` ("output[0].linear.part") set."""
     head, _, rest = path.partition(".")
     if head.endswith("]"):
         name, index = head[:-1].split("[")
         items = list(getattr(model, name))
-        items[int(index)] = _set(items[int(index)], rest, value)
+        items[int(index)] = set_field(items[int(index)], rest, value)
         return model.model_copy(update={name: items})
     if not rest:
         return model.model_copy(update={head: value})
-    return model.model_copy(update={head: _set(getattr(model, head), rest, value)})
+    return model.model_copy(update={head: set_field(getattr(model, head), rest, value)})
 
 
 def count(spec_topology: str, part) -> int:

@@ -17,8 +17,7 @@ from pathlib import Path
 import pytest
 
 from docgen.errors import InfeasibleDesign
-from docgen.explore import search
-from docgen.explore.search import best_loaded
+from docgen.explore.search import best_loaded, search
 from docgen.parts.library import load_library
 from docgen.pipeline import run
 from docgen.spec import load_requirements
