@@ -125,6 +125,31 @@ def test_greedy_never_better_than_search():
     assert res.greedy_status in ("pass", "warn") and greedy.feasible
     assert res.best.cost <= greedy.cost + 1e-12
     assert res.verdicts[0] is greedy  # verified first, so the bound starts from it
+    # Batched verification gives the pipeline's own figures: the greedy design built alone
+    # (its own engine calls) has the same checks with the same values and verdicts.
+    alone = {c.id: c for c in run(loaded, samples=0).checks}
+    batched = {c.id: c for c in greedy.checks}
+    assert set(alone) == set(batched)
+    for cid, c in alone.items():
+        assert batched[cid].value == pytest.approx(c.value, rel=1e-6, abs=1e-12), cid
+        assert batched[cid].status == c.status, cid
+
+
+def test_sensitivity_moves_the_best_cost_the_right_way():
+    from docgen.explore.sensitivity import sensitivity
+
+    steps = {(s.what, s.step): s for s in sensitivity(load_requirements(SPEC), budget=200)}
+    assert len(steps) == 6
+    base = search(load_requirements(SPEC)).best.cost
+    # relaxing a requirement never makes the best design dearer; tightening never cheaper
+    # (every design that meets the tighter requirement meets the looser one)
+    for relaxed in (("ripple limit", "+20 %"), ("hottest ambient", "-10 K"),
+                    ("load current", "-10 %")):
+        assert steps[relaxed].best_cost <= base + 1e-9
+    for tightened in (("ripple limit", "-20 %"), ("hottest ambient", "+10 K"),
+                      ("load current", "+10 %")):
+        cost = steps[tightened].best_cost
+        assert cost != cost or cost >= base - 1e-9  # nan: nothing passes
 
 
 def test_budget_stops_with_a_note():
