@@ -67,18 +67,47 @@ class _State:
     verdict: Verdict | None = None
 
 
+# The searched parts each sizing stage has read by its end (stages run in this order; a stage
+# reads the spec's own fields and what earlier stages recorded: DEVELOPERS.md).
+_READ_BY = {
+    "margins": (), "mains": (),
+    "regulator_needs": ("zener", "transistor", "regulator"),
+    "transformer": ("zener", "transistor", "regulator", "transformer"),
+    "reservoir": ("zener", "transistor", "regulator", "transformer", "capacitor"),
+}
+
+
+def _failure_key(cand: Candidate, stage: str) -> tuple | None:
+    """What a first-pass sizing failure at ``stage`` depends on (None: do not reuse it)."""
+    if stage not in _READ_BY:
+        return None
+    return (stage, tuple((a, p) for a, p in cand.choice if a in _READ_BY[stage]))
+
+
 def verify(cands: list[Candidate], specs: list, library, spec_path: str, reg,
-           topology: str) -> list[Verdict]:
-    """Verdicts of ``cands`` (``specs``: each one's requirements with its parts written in)."""
+           topology: str, failures: dict | None = None) -> list[Verdict]:
+    """Verdicts of ``cands`` (``specs``: each one's requirements with its parts written in).
+
+    ``failures`` carries first-pass sizing failures between batches: a candidate that shares
+    with a failed one every part the failing stage had read fails the same way, unsized."""
+    failures = {} if failures is None else failures
     states = [_State(c, SizingContext(spec=s, spec_path=spec_path, library=library))
               for c, s in zip(cands, specs, strict=True)]
     pending = states
-    for _ in range(MAX_PASSES):
+    for first in (True, *([False] * (MAX_PASSES - 1))):
         for st in pending:
+            known = first and next((failures[k] for k in (
+                _failure_key(st.cand, stage) for stage in _READ_BY) if k in failures), "")
+            if known:
+                st.verdict = Verdict(st.cand, False, known)
+                continue
             try:
                 st.L = size_pass(st.ctx, reg)
             except DocgenError as exc:
                 st.verdict = Verdict(st.cand, False, f"not sizeable: {exc}")
+                key = _failure_key(st.cand, getattr(exc, "stage", ""))
+                if first and key is not None:
+                    failures[key] = st.verdict.reason
         live = [st for st in pending if st.verdict is None]
         _steady(live, topology, reg)
         pending = [st for st in live if raise_floors(st.ctx, st.L, st.cr, reg)]

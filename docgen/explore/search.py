@@ -124,6 +124,7 @@ def search(loaded: LoadedSpec, *, objective: str = "cost", budget: int = DEFAULT
                           greedy_status=g_status, greedy_reason=g_reason,
                           bounded_out=size - len(survivors))
     best_cost = math.inf
+    failures: dict = {}  # first-pass sizing failures, reused across batches
     done = 0
     while done < len(cands):
         if done >= budget:
@@ -137,7 +138,7 @@ def search(loaded: LoadedSpec, *, objective: str = "cost", budget: int = DEFAULT
         with stage(f"verifying candidates {done + 1}-{done + len(chunk)} of {len(cands)} "
                    f"({sum(v.feasible for v in result.verdicts)} feasible so far)"):
             verdicts = verify(chunk, [space.apply(spec, c, free) for c in chunk], library,
-                              str(loaded.path), reg, topo)
+                              str(loaded.path), reg, topo, failures)
         for c, v in zip(chunk, verdicts, strict=True):
             v.greedy = c == greedy
             if v.feasible:
