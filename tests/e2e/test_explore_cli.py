@@ -7,6 +7,8 @@ import json
 import shutil
 from pathlib import Path
 
+import pytest
+
 from docgen.cli import main
 
 DATA = Path(__file__).resolve().parents[1] / "data" / "explore"
@@ -59,3 +61,18 @@ def test_build_design_best_states_the_search(tmp_path, capsys):
     # the fixed discrete diodes of the bridge count four in the BOM, as a library pick does
     bom = (out / "explore-demo" / "bom.csv").read_text(encoding="utf-8-sig")
     assert '"4 x Rectifier diode, 1 A, 400 V, axial (demo)"' in bom
+
+
+DEMO_WITH_LIBRARY = sorted(p for p in (DATA.parents[2] / "specs").glob("*.toml")
+                           if "[parts]" in p.read_text(encoding="utf-8"))
+
+
+@pytest.mark.parametrize("spec", DEMO_WITH_LIBRARY, ids=lambda p: p.stem)
+def test_demo_search_at_least_as_cheap_as_greedy(spec):
+    from docgen.explore.search import search
+    from docgen.spec import load_requirements
+
+    result = search(load_requirements(spec))
+    assert result.greedy is not None and result.greedy.feasible
+    assert result.best.cost <= result.greedy.cost + 1e-12
+    assert result.best.feasible and not result.budget_reached
