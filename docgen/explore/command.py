@@ -124,7 +124,8 @@ def handle(args) -> int:
             print(f"  {s.what} {s.step} ({fq(s.value, unit, 3)}): {cost}")
     pts, _ = front_points(result)
     print(f"\ntrade-off plot ({len(pts)} feasible candidates): {out_dir / 'tradeoff.svg'}")
-    print("build the best one with: docgen build --design best " + str(args.spec))
+    if result.best is not None:
+        print("build the best one with: docgen build --design best " + str(args.spec))
     return 0 if result.best is not None else 1
 
 
