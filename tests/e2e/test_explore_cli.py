@@ -25,7 +25,8 @@ def test_explore_writes_table_and_plot(tmp_path, capsys):
     out = tmp_path / "out"
     assert main(["explore", str(spec), "-o", str(out), "--all"]) == 0
     text = capsys.readouterr().out
-    assert "18 candidates" in text  # 3 transformers x 1 rectifier x 3 capacitors x 2 regulators
+    assert "24 candidates" in text  # 3 transformers x 1 rectifier x 4 capacitors x 2 regulators
+    assert "6 were ruled out by hand bounds" in text  # the 16 V capacitor, with each transformer
     assert "lowest total part cost" in text
     assert "Stage-by-stage sizing gives no working design here" in text
     svg = (out / "explore-demo-explore" / "tradeoff.svg").read_text()
@@ -55,7 +56,7 @@ def test_build_design_best_states_the_search(tmp_path, capsys):
     search = [a for a in results["assumptions"] if a["id"] == "assume.search"]
     assert len(search) == 1
     assert "chosen by a search of the approved-parts library" in search[0]["text"]
-    assert "18 candidates" in search[0]["text"]
+    assert "24 candidates" in search[0]["text"]
     html = (out / "explore-demo" / "report.html").read_text()
     assert "chosen by the design-space search" in html
     # the fixed discrete diodes of the bridge count four in the BOM, as a library pick does
