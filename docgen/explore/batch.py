@@ -53,6 +53,7 @@ class Verdict:
     cost: float = math.nan  # sum of library prices of every part with a price
     dissipation: float = math.nan  # W, largest p_in - p_out over the corners (engine)
     cap_life: float = math.nan  # h, capacitor life (when the file asks for a life)
+    hold_up: float = math.nan  # s, full load carried after the mains fails (hold_up below)
     parts: dict[str, str] = field(default_factory=dict)  # designator -> part id
     checks: list[Check] = field(default_factory=list)
     greedy: bool = False
@@ -228,8 +229,20 @@ def _judge(st: _State, reg, topology: str) -> Verdict:
         cost=cost_of(st.ctx, topology),
         dissipation=float(np.nanmax(p_loss)) if np.isfinite(p_loss).any() else math.nan,
         cap_life=st.L["reservoir.life"] if "reservoir.life" in st.L else math.nan,
+        hold_up=hold_up(st.L, st.cr),
         parts=_parts(st.ctx),
         checks=checks)
+
+
+def hold_up(L: Ledger, cr: CornerResult) -> float:
+    """Time the reservoir carries the largest input current after the mains fails at the
+    nominal trough, down to the least input the regulator is sized for: C_min dV / I
+    (constant-current discharge, common practice); 0 when the trough is already below it."""
+    if "regulator.v_in_min_needed" not in L or "regulator.i_in_max" not in L:
+        return math.nan
+    v = float(cr.corner_metric("v_c_min")[cr.nominal_index])
+    c = L["reservoir.c"] * (1 - L["reservoir.tol"])
+    return max(0.0, c * (v - L["regulator.v_in_min_needed"]) / L["regulator.i_in_max"])
 
 
 def cost_of(ctx: SizingContext, topology: str) -> float:

@@ -45,6 +45,10 @@ def add_parser(sub) -> argparse.ArgumentParser:
                    help="what 'best' means (default: cost)")
     p.add_argument("--budget", type=_budget, default=DEFAULT_BUDGET, metavar="N",
                    help=f"verify at most N candidates (default {DEFAULT_BUDGET})")
+    p.add_argument("--versus", choices=tuple(o for o in OBJECTIVES if o != "cost"),
+                   default="dissipation",
+                   help="the objective the trade-off plot sets against cost (default: "
+                   "dissipation)")
     p.add_argument("--all", action="store_true",
                    help="verify every candidate the hand bounds leave, also those whose parts "
                    "alone cost more than the best found (a fuller trade-off plot)")
@@ -98,7 +102,7 @@ def handle(args) -> int:
     currency = currency_of(loaded)
     out_dir = args.out / (safe_stem(args.spec) + "-explore")
     prepare_dir(out_dir)
-    svg = _plot(result, currency)
+    svg = _plot(result, currency, args.versus)
     write_atomic(out_dir / "tradeoff.svg", svg)
     if args.quiet:
         return 0 if result.best is not None else 1
@@ -122,28 +126,32 @@ def handle(args) -> int:
             else:
                 cost = "no candidate passes"
             print(f"  {s.what} {s.step} ({fq(s.value, unit, 3)}): {cost}")
-    pts, _ = front_points(result)
+    pts, _ = front_points(result, "cost", args.versus)
     print(f"\ntrade-off plot ({len(pts)} feasible candidates): {out_dir / 'tradeoff.svg'}")
-    if result.best is not None:
+    if result.best is not None and args.objective == "cost":
         print("build the best one with: docgen build --design best " + str(args.spec))
+    elif result.best is not None:
+        print("note: docgen build --design best builds the best by cost")
     return 0 if result.best is not None else 1
 
 
-def _plot(result, currency: str) -> str:
+def _plot(result, currency: str, versus: str = "dissipation") -> str:
     from ..render.explore_plot import tradeoff_svg
     from .objectives import value
     from .text import front_points
 
-    pts, front = front_points(result)
+    pts, front = front_points(result, "cost", versus)
     g = result.greedy
     b = result.best
-    bad = [(v.cost, v.dissipation) for v in result.verdicts
-           if not v.feasible and math.isfinite(v.cost) and math.isfinite(v.dissipation)]
-    return tradeoff_svg(
-        pts, front,
-        (value(g, "cost"), value(g, "dissipation")) if g is not None and g.feasible else None,
-        (value(b, "cost"), value(b, "dissipation")) if b is not None else None,
-        currency=currency, infeasible=bad)
+
+    def xy(v):
+        return (value(v, "cost"), value(v, versus))
+
+    bad = [xy(v) for v in result.verdicts
+           if not v.feasible and all(math.isfinite(t) for t in xy(v))]
+    return tradeoff_svg(pts, front, xy(g) if g is not None and g.feasible else None,
+                        xy(b) if b is not None else None, y=versus, currency=currency,
+                        infeasible=bad)
 
 
 def build_best(specs: list[Path], args) -> int:

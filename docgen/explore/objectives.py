@@ -10,11 +10,13 @@ OBJECTIVES = {
     "dissipation": ("largest heat over the corners (engine: input less output power)", "W",
                     "min"),
     "life": ("capacitor life expectancy", "h", "max"),
+    "hold-up": ("time the reservoir carries the full load after the mains fails", "s", "max"),
 }
 
 
 def value(v, objective: str) -> float:
-    return {"cost": v.cost, "dissipation": v.dissipation, "life": v.cap_life}[objective]
+    return {"cost": v.cost, "dissipation": v.dissipation, "life": v.cap_life,
+            "hold-up": v.hold_up}[objective]
 
 
 def rank_key(v, objective: str) -> tuple:
@@ -28,7 +30,8 @@ def rank_key(v, objective: str) -> tuple:
 
 
 def pareto(points: list, x: str = "cost", y: str = "dissipation") -> list:
-    """The verdicts no other beats on both objectives (both minimised; life is maximised)."""
+    """The verdicts no other beats on both objectives (cost and heat minimised, life and
+    hold-up maximised)."""
     def key(v, name):
         val = value(v, name)
         return -val if OBJECTIVES[name][2] == "max" else val

@@ -10,7 +10,7 @@ from .objectives import OBJECTIVES, pareto, value
 from .search import SearchResult
 
 PHRASE = {"cost": "lowest total part cost", "dissipation": "lowest worst-case heat",
-          "life": "longest capacitor life"}
+          "life": "longest capacitor life", "hold-up": "longest hold-up time"}
 
 
 def money(x: float, currency: str) -> str:
@@ -82,15 +82,17 @@ def table(r: SearchResult, currency: str, n: int = 5) -> str:
     rows = r.feasible[:n]
     if not rows:
         return "no feasible candidate\n"
-    head = f"{'#':>2}  {'cost':>10}  {'heat':>9}  {'cap life':>10}  parts / differs from #1"
+    head = (f"{'#':>2}  {'cost':>10}  {'heat':>9}  {'cap life':>10}  {'hold-up':>9}  "
+            "parts / differs from #1")
     lines = [head]
     best = rows[0]
     for k, v in enumerate(rows, 1):
         life = fq(v.cap_life, "h", 3) if math.isfinite(v.cap_life) else "n/a"
         what = v.cand.label() if k == 1 else differs(best, v)
         mark = " (greedy)" if v.greedy else ""
+        hold = fq(v.hold_up, "s", 3) if math.isfinite(v.hold_up) else "n/a"
         lines.append(f"{k:>2}  {money(v.cost, currency):>10}  {fq(v.dissipation, 'W', 3):>9}  "
-                     f"{life:>10}  {what}{mark}")
+                     f"{life:>10}  {hold:>9}  {what}{mark}")
     return "\n".join(lines) + "\n"
 
 

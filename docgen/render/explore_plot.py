@@ -8,7 +8,7 @@ import math
 from .plots import GRID, _figure, figure_svg
 
 LABELS = {"cost": "total part cost", "dissipation": "worst-case heat (W)",
-          "life": "capacitor life (h)"}
+          "life": "capacitor life (h)", "hold-up": "hold-up time (s)"}
 
 
 def tradeoff_svg(points: list[tuple[float, float]], front: list[tuple[float, float]],

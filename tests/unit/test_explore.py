@@ -165,3 +165,28 @@ def test_best_design_monte_carlo_yield_reported(result):
     mc = design.monte_carlo
     assert mc["samples"] == 200
     assert 0.0 <= mc["yield"] <= 1.0
+
+
+def test_pareto_front_is_the_non_dominated_set():
+    # reference: a point is on the front when no other point is at least as good on both
+    # objectives and better on one (the definition, checked pairwise here)
+    import random
+    from types import SimpleNamespace
+
+    from docgen.explore.objectives import pareto
+
+    rng = random.Random(3)
+    pts = [SimpleNamespace(cost=rng.randint(1, 12), dissipation=rng.randint(1, 12),
+                           cap_life=float("nan"), hold_up=rng.random(), cand=None)
+           for _ in range(60)]
+
+    def dominated(p, by):
+        return (by.cost <= p.cost and by.dissipation <= p.dissipation
+                and (by.cost < p.cost or by.dissipation < p.dissipation))
+
+    expected = {id(p) for p in pts if not any(dominated(p, q) for q in pts)}
+    front = pareto(pts)
+    # equal points keep one representative each
+    assert {(p.cost, p.dissipation) for p in front} == {
+        (p.cost, p.dissipation) for p in pts if id(p) in expected}
+    assert [p.cost for p in front] == sorted(p.cost for p in front)
