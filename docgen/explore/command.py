@@ -94,6 +94,7 @@ def handle(args) -> int:
     with reporting(_reporter(args)):
         result = search_mod.search(loaded, objective=args.objective, budget=args.budget,
                                    exhaustive=args.all)
+        yield_text = _best_yield(loaded, result)
         steps = []
         if args.sensitivity:
             from .sensitivity import sensitivity
@@ -112,6 +113,8 @@ def handle(args) -> int:
               "raise --budget to search the rest (the best below is the best of those "
               "verified)")
     print(why_sentence(result, currency))
+    if yield_text:
+        print(yield_text)
     print()
     print(table(result, currency, args.top), end="")
     if steps:
@@ -133,6 +136,27 @@ def handle(args) -> int:
     elif result.best is not None:
         print("note: docgen build --design best builds the best by cost")
     return 0 if result.best is not None else 1
+
+
+def _best_yield(loaded, result) -> str:
+    """The Monte Carlo yield of the best design: the pipeline's full run of it."""
+    from ..errors import InfeasibleDesign
+    from ..pipeline import run
+    from ..progress import stage
+    from .search import best_loaded
+
+    if result.best is None:
+        return ""
+    with stage("Monte Carlo of the best design"):
+        try:
+            design = run(best_loaded(loaded, result))
+        except InfeasibleDesign as exc:
+            return f"The best design could not be built again: {exc}"
+    mc = design.monte_carlo
+    if not mc or not mc.get("samples"):
+        return f"The best design is {design.status.upper()} (Monte Carlo is off in the file)."
+    return (f"The best design is {design.status.upper()}; Monte Carlo yield "
+            f"{mc['yield'] * 100:.1f} % of {mc['samples']} samples (seed {mc['seed']}).")
 
 
 def _plot(result, currency: str, versus: str = "dissipation") -> str:

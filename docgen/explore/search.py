@@ -135,6 +135,8 @@ def search(loaded: LoadedSpec, *, objective: str = "cost", budget: int = DEFAULT
             result.skipped_by_cost = len(cands) - done
             break
         chunk = cands[done:min(done + batch, len(cands), budget)]
+        if objective == "cost" and not exhaustive:
+            chunk = [c for c in chunk if lower_cost(c, library, topo) <= best_cost]
         with stage(f"verifying candidates {done + 1}-{done + len(chunk)} of {len(cands)} "
                    f"({sum(v.feasible for v in result.verdicts)} feasible so far)"):
             verdicts = verify(chunk, [space.apply(spec, c, free) for c in chunk], library,

@@ -60,9 +60,17 @@ def why_sentence(r: SearchResult, currency: str) -> str:
     elif g is not None and g.feasible:
         text += (f", against {merit(g, obj, currency)} for the design that stage-by-stage "
                  f"sizing gives ({g.cand.label()}).")
-    else:
+    elif g is not None:
+        text += (f". The design that stage-by-stage sizing gives ({g.cand.label()}) fails a "
+                 f"check: {g.reason}.")
+    elif r.greedy_status == "infeasible":
         text += (". Stage-by-stage sizing gives no working design here"
                  + (f" ({r.greedy_reason})" if r.greedy_reason else "") + ".")
+    elif r.greedy_status in ("pass", "warn", "fail"):
+        text += (". The design that stage-by-stage sizing gives is not among the candidates: "
+                 f"{r.greedy_reason}.")
+    else:
+        text += "."
     others = r.feasible[1:2]
     if others:
         nxt = others[0]

@@ -29,6 +29,7 @@ def test_explore_writes_table_and_plot(tmp_path, capsys):
     assert "6 were ruled out by hand bounds" in text  # the 16 V capacitor, with each transformer
     assert "lowest total part cost" in text
     assert "Stage-by-stage sizing gives no working design here" in text
+    assert "Monte Carlo yield" in text and "of 200 samples (seed 7)" in text
     svg = (out / "explore-demo-explore" / "tradeoff.svg").read_text()
     assert svg.startswith("<?xml") and "chosen design" in svg
 
