@@ -72,8 +72,8 @@ def _stage_text(reg, n_corners: int) -> list[Stage]:
     ]
 
 
-def _size(ctx: SizingContext, reg) -> Ledger:
-    L = Ledger()
+def _size(ctx: SizingContext, reg, L: Ledger | None = None) -> Ledger:
+    L = Ledger() if L is None else L
     for stage_id, fn in _stages(reg):
         L.stage = stage_id
         fn(ctx, L)
@@ -89,6 +89,20 @@ def _guarded(fn: Callable[[], Any]) -> Any:
         # Requirements that pass validation can still be physically contradictory in a way
         # that surfaces as a non-finite or undefined value; never report such numbers.
         raise InfeasibleDesign(undefined_text(exc)) from None
+
+
+def size_pass(ctx: SizingContext, reg) -> Ledger:
+    """One sizing pass with the floors ``ctx`` holds (public for the design-space search, which
+    sizes many candidates and verifies them together: docgen.explore). An InfeasibleDesign it
+    raises names the sizing stage that found it (``stage``)."""
+    ctx.picks.clear()
+    ctx.conflicts.clear()
+    L = Ledger()
+    try:
+        return _guarded(partial(_size, ctx, reg, L))
+    except InfeasibleDesign as exc:
+        exc.stage = L.stage  # the stage that found it: the search reuses the verdict
+        raise
 
 
 def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:

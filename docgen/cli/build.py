@@ -17,6 +17,10 @@ def run_build(args) -> int:
 
         raise SpecError("-", [SpecIssue("", "build reads specs from files (the report names "
                                             "and attaches the file); '-' works with check")])
+    if args.design == "best":
+        from .explore import build_best
+
+        return build_best(specs, args)
     if len(specs) == 1 and not any(item.is_dir() for item in args.specs):
         return _build_single(specs[0], args)
     return _build_batch(specs, args)

@@ -10,13 +10,14 @@ from .check import run_check
 from .completion import run_completion
 from .diff import run_diff
 from .exit_codes import BAD_INPUT, FAILED, INTERRUPTED
+from .explore import handle as run_explore
 from .new import run_new
 from .parser import build_parser
 from .schema import run_schema
 
 # A new subcommand: its parser block in parser.py, its handler module, one line here.
 HANDLERS = {"build": run_build, "check": run_check, "diff": run_diff, "new": run_new,
-            "schema": run_schema, "completion": run_completion}
+            "schema": run_schema, "completion": run_completion, "explore": run_explore}
 
 
 def main(argv: list[str] | None = None) -> int:

@@ -10,6 +10,8 @@ import argparse
 from pathlib import Path
 
 from .. import __version__
+from .explore import add_design_option
+from .explore import add_parser as add_explore
 from .help_text import (
     BUILD_EXIT,
     CHECK_EXIT,
@@ -65,6 +67,7 @@ def build_parser() -> argparse.ArgumentParser:
     b.add_argument("-j", "--jobs", type=positive_int, default=None, metavar="N",
                    help="worker processes for several specs (default: number of CPUs)")
     _output_options(b, "print the time of each stage of a single build on stderr")
+    add_design_option(b)
 
     c = _sub(sub, "check", "validate, size and check; print the result",
              "Validate and compute without writing files; print each failing or marginal "
@@ -105,6 +108,8 @@ def build_parser() -> argparse.ArgumentParser:
     s.add_argument("which", choices=("requirements", "results", "check", "build", "diff"),
                    help="requirements file, results.json, or the --format json output of "
                    "check, build or diff")
+
+    add_explore(sub)
 
     k = _sub(sub, "completion", "print a shell completion script",
              "Print a completion script for bash or zsh, generated from docgen's own "

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -9,7 +10,7 @@ from ..design import Design
 from ..errors import InfeasibleDesign
 from ..pipeline import run
 from ..progress import stage
-from ..spec import load_requirements
+from ..spec import LoadedSpec, load_requirements
 from .output import (
     output_lock,
     prepare_dir,
@@ -35,16 +36,18 @@ def design_for(spec_path: Path) -> Design:
     return run(load_requirements(spec_path))
 
 
-def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True) -> BuildResult:
+def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True,
+              design: Callable[[LoadedSpec], Design] = run) -> BuildResult:
     """Build one spec into OUT/<stem>/ while holding the folder's lock; afterwards the folder
-    holds this build's outputs only (stale ones of an earlier build are removed and named)."""
+    holds this build's outputs only (stale ones of an earlier build are removed and named).
+    ``design`` makes the Design (the pipeline; docgen.explore gives the search's best)."""
     with stage("reading the requirements"):
         loaded = load_requirements(spec_path)
     out_dir = out_root / safe_stem(spec_path)
     with output_lock(out_dir):
         remove_leftovers(out_dir)
         previous = _previous_outputs(out_dir)
-        result = _build_into(loaded, spec_path, out_dir, pdf)
+        result = _build_into(loaded, spec_path, out_dir, pdf, design)
         result.removed = remove_stale(out_dir, result.files, previous)
     return result
 
@@ -57,10 +60,11 @@ def _previous_outputs(out_dir: Path) -> list[str]:
     return list(outputs) if isinstance(outputs, dict) else []
 
 
-def _build_into(loaded, spec_path: Path, out_dir: Path, pdf: bool) -> BuildResult:
+def _build_into(loaded, spec_path: Path, out_dir: Path, pdf: bool,
+                make: Callable[[LoadedSpec], Design] = run) -> BuildResult:
     try:
         with stage("sizing, corners and Monte Carlo"):
-            design = run(loaded)
+            design = make(loaded)
     except InfeasibleDesign as exc:
         import json
 

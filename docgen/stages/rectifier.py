@@ -83,6 +83,8 @@ def size_rectifier(ctx: SizingContext, L: Ledger) -> None:
     if spec.rectifier.part:
         part = ctx.fixed_part("rectifier", spec.rectifier.part, "rectifier.part")
         ctx.picks[ref] = Pick(ref, part.kind, "fixed", part, f"{part.id} named in the file")
+        if part.kind == "diode":  # one per arm, as a library pick of discrete diodes counts
+            ctx.picks[ref].quantity = {"bridge": 4, "center-tap": 2}.get(topo.name, 1)
     elif ctx.library is not None:
         from ..parts.select import select_bridge_or_diodes
 

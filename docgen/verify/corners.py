@@ -169,6 +169,30 @@ def _circuit(L: Ledger, pts: PointSet, topology: str, reg) -> Circuit:
 AXES = ("line", "load", "c", "v_z", "r", "t_d", "freq")
 
 
+def design_circuit(L: Ledger, pts: PointSet, topology: str, reg) -> Circuit:
+    """The engine circuit of one design at ``pts``; public so that many designs can be put
+    through the engine in one call (docgen.explore)."""
+    return _circuit(L, pts, topology, reg)
+
+
+# The engine's steady-state figures every design keeps.
+STEADY_FIGURES = (
+    "v_c_max", "v_c_min", "v_c_mean", "ripple_pp", "conduction_angle", "i_d_peak",
+    "i_d_avg", "i_d_rms", "i_sec_rms", "va_sec", "i_c_rms", "p_source", "p_diodes",
+    "p_esr", "p_r_series", "p_zener", "p_out", "p_in", "v_out_max", "v_out_min",
+    "v_out_mean", "v_out_pp", "i_z_min", "i_z_max")
+
+
+def design_metrics(L: Ledger, pts: PointSet, figures: dict[str, np.ndarray], topology: str,
+                   reg) -> dict[str, Any]:
+    """One design's figures at ``pts``: the engine's (``STEADY_FIGURES``), the rectifier's
+    output current from one diode's average, then the regulator kind's own figures."""
+    metrics: dict[str, Any] = {name: figures[name] for name in STEADY_FIGURES}
+    metrics["i_dc"] = metrics["i_d_avg"] * topology_record(topology).dc_per_diode_average
+    metrics.update(reg.derived_metrics(L, pts, metrics))
+    return metrics
+
+
 def _concat(a: PointSet, b: PointSet | None) -> PointSet:
     if b is None:
         return a
@@ -187,6 +211,12 @@ def _with_output(L: Ledger, reg, wave: dict, pts: PointSet, k: int) -> dict:
     return out
 
 
+def nominal_corner(corners: PointSet) -> int:
+    """The corner whose figures the summary calls nominal: nominal mains, full load, C low."""
+    return next(k for k, n in enumerate(corners.name)
+                if n.startswith("nominal mains, full load, C -"))
+
+
 def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_max: float, *,
             reg, surge: bool = True) -> CornerResult:
     """Simulate every corner and Monte Carlo sample of the design in one engine call, the
@@ -196,19 +226,12 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
     pts = _concat(corners, mc)
     # waveforms for the nominal corner and the low-line, full-load, C low corner (there with
     # the cold diode and the lower frequency: the deepest trough)
-    nominal = next(k for k, n in enumerate(corners.name)
-                   if n.startswith("nominal mains, full load, C -"))
+    nominal = nominal_corner(corners)
     trough = max((k for k, n in enumerate(corners.name) if n.startswith("low line, full load, C -")),
                  key=lambda k: (corners.v_z[k], corners.r[k], -corners.t_d[k], -corners.freq[k]))
     ss = simulate(_circuit(L, pts, topology, reg), keep_waveforms=(nominal, trough))
-    metrics: dict[str, Any] = {name: getattr(ss, name) for name in (
-        "v_c_max", "v_c_min", "v_c_mean", "ripple_pp", "conduction_angle", "i_d_peak",
-        "i_d_avg", "i_d_rms", "i_sec_rms", "va_sec", "i_c_rms", "p_source", "p_diodes",
-        "p_esr", "p_r_series", "p_zener", "p_out", "p_in", "v_out_max", "v_out_min",
-        "v_out_mean", "v_out_pp", "i_z_min", "i_z_max")}
-    # Output current of the rectifier from one diode's average, then the kind's own figures.
-    metrics["i_dc"] = metrics["i_d_avg"] * topology_record(topology).dc_per_diode_average
-    metrics.update(reg.derived_metrics(L, pts, metrics))
+    metrics = design_metrics(L, pts, {name: getattr(ss, name) for name in STEADY_FIGURES},
+                             topology, reg)
     surge = _surge(L, corners, ss, topology, reg) if surge else {}
     return CornerResult(
         corners=corners, samples=mc, metrics=metrics, converged=ss.converged,
@@ -230,6 +253,15 @@ def _surge(L: Ledger, corners: PointSet, ss, topology: str, reg) -> dict:
     and so adds I^2 t), at each mains frequency; all run in one vectorised call. Each runs until
     its pulses fall to 1.1 x its steady-state repetitive peak; the larger peak and the larger
     I^2 t are reported."""
+    sub, ref = surge_points(corners, ss.i_d_peak)
+    so = switch_on(_circuit(L, sub, topology, reg), steps_per_period=SURGE_STEPS,
+                   max_cycles=SURGE_CYCLES, settle_peak=ref)
+    return surge_figures(sub, so)
+
+
+def surge_points(corners: PointSet, i_d_peak: np.ndarray) -> tuple[PointSet, np.ndarray]:
+    """The switch-on corners of ``_surge`` and their steady-state repetitive peaks (the settling
+    reference; NaN where the engine gave none)."""
     top = max(range(len(corners)), key=lambda j: (corners.line[j], corners.c[j], corners.t_d[j]))
     same = [j for j in range(len(corners))
             if all(getattr(corners, f)[j] == getattr(corners, f)[top]
@@ -243,9 +275,12 @@ def _surge(L: Ledger, corners: PointSet, ss, topology: str, reg) -> dict:
                    name=[corners.name[j] for j in pick],
                    line_name=[corners.line_name[j] for j in pick],
                    load_name=[corners.load_name[j] for j in pick])
-    ref = np.asarray(ss.i_d_peak)[pick]
-    so = switch_on(_circuit(L, sub, topology, reg), steps_per_period=SURGE_STEPS,
-                   max_cycles=SURGE_CYCLES, settle_peak=np.where(np.isfinite(ref), ref, np.nan))
+    ref = np.asarray(i_d_peak)[pick]
+    return sub, np.where(np.isfinite(ref), ref, np.nan)
+
+
+def surge_figures(sub: PointSet, so) -> dict:
+    """The reported switch-on figures of the points ``sub`` (``so``: their SwitchOn arrays)."""
     if not bool(np.all(so.converged)):
         return {"ok": False}
     kp = int(np.argmax(so.i_peak))
