@@ -15,6 +15,7 @@ from . import filters
 from .bom import bom_rows
 from .mathsvg import formula_data_uri
 from .netlist import netlist
+from .results_json import insulation_facts
 
 
 @lru_cache(maxsize=1)
@@ -189,6 +190,7 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
             if key in design.monte_carlo.get("quantities", {})
         ],
         "values": design.values,
+        "insulation": insulation_facts(design),
     }
 
 

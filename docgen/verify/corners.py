@@ -24,6 +24,7 @@ import numpy as np
 from ..engine import Circuit, simulate, switch_on
 from ..topology import topology as topology_record
 from ..trace import Ledger
+from .holdup import holdup_times
 
 # Inputs the circuit model can be built from, for the trace of every engine value.
 MODEL_INPUTS = (
@@ -170,7 +171,8 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
                    if n.startswith("nominal mains, full load, C -"))
     trough = max((k for k, n in enumerate(corners.name) if n.startswith("low line, full load, C -")),
                  key=lambda k: (corners.v_z[k], corners.r[k]))
-    ss = simulate(_circuit(L, pts, topology, reg), keep_waveforms=(nominal, trough))
+    circuit = _circuit(L, pts, topology, reg)
+    ss = simulate(circuit, keep_waveforms=(nominal, trough))
     metrics: dict[str, Any] = {name: getattr(ss, name) for name in (
         "v_c_max", "v_c_min", "v_c_mean", "ripple_pp", "conduction_angle", "i_d_peak",
         "i_d_avg", "i_d_rms", "i_sec_rms", "va_sec", "i_c_rms", "p_source", "p_diodes",
@@ -179,6 +181,8 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
     # Output current of the rectifier from one diode's average, then the kind's own figures.
     metrics["i_dc"] = metrics["i_d_avg"] * topology_record(topology).dc_per_diode_average
     metrics.update(reg.derived_metrics(L, pts, metrics))
+    if "output.hold_up" in L:
+        metrics["holdup"] = holdup_times(L, reg, pts, metrics["v_c_min"], circuit)
     surge = _surge(L, corners, ss, topology, reg) if surge else {}
     return CornerResult(
         corners=corners, samples=mc, metrics=metrics, converged=ss.converged,

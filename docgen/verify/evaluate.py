@@ -15,11 +15,14 @@ from ..topology import topology
 from ..trace import Ledger
 from .checks import make_check
 from .corners import CornerResult, model_inputs
+from .regulation import regulation_checks
 from .worst import worst_corner
 
 # Ids the evaluation writes (stage "corners"): engine figures and capacitor life.
 WRITES = ("engine.", "reservoir.life", "reservoir.t_core", "reservoir.r_th", "env.required_life")
 LIFE_CAP = 15 * 8766 * 3600.0  # s; 15 years of 8766 h
+# Engine figures computed from the engine's waveforms by a rule of their own.
+ENGINE_EQUATIONS = {"holdup": eq.HOLDUP_ENGINE}
 
 
 def designator(spec, ref: str) -> str:
@@ -43,11 +46,14 @@ def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[
                 f"the waveform engine did not converge at any corner for {chk.title.lower()}; "
                 "no number is reported that was not converged to")
         vid = f"engine.{chk.id.split('.', 1)[1]}"
-        L.measured(vid, eq.ENGINE, chk.symbol, value, chk.unit,
-                   f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)",
-                   inputs, cr.corners.name[k])
+        where = cr.corners.name[k]
+        if chk.metric == "holdup":
+            where += f"; mains lost at the trough, down to {reg.holdup_stop}"
+        L.measured(vid, ENGINE_EQUATIONS.get(chk.metric, eq.ENGINE), chk.symbol, value,
+                   chk.unit, f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst "
+                   "corner)", inputs, where)
         checks.append(make_check(L, chk.id, chk.title, vid, chk.limit_id, chk.sense,
-                                 cr.corners.name[k], w, ref=designator(spec, chk.ref),
+                                 where, w, ref=designator(spec, chk.ref),
                                  requirement=chk.requirement))
     # A corner the engine could not solve is a failing check of its own, never a number.
     bad = [cr.corners.name[k] for k in range(cr.n_corners) if not cr.converged[k]]
@@ -84,6 +90,7 @@ def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[
                    where)
     L.calc("engine.efficiency", eq.EFFICIENCY, r"\eta", "%", "Efficiency at nominal, full load",
            {"o": "engine.p_out_nominal", "i": "engine.p_in_nominal"}, lambda o, i: o / i)
+    checks += regulation_checks(ctx, L, cr, reg)
     checks += hand_checks(ctx, L, cr, reg)
     return checks
 
