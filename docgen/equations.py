@@ -462,7 +462,7 @@ HOLDUP_ENGINE = _eq(
     + CHARGE_BALANCE)
 REGULATION_SPREAD = _eq(
     "engine.regulation", "Regulation: spread of the engine's mean output over a set of corners",
-    r"\frac{\max \bar V_{out} - \min \bar V_{out}}{V_{out}}", {},
+    r"\frac{\max \bar{V}_{out} - \min \bar{V}_{out}}{V_{out}}", {},
     "definition of line and load regulation as a fraction of the nominal output (common "
     "practice; " + SEDRA_SMITH + ")")
 WORKING_RMS = _eq(

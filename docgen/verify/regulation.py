@@ -37,10 +37,18 @@ def _spread(cr: CornerResult, keep, vary: str) -> tuple[float, str]:
         d = float(v[hi] - v[lo])
         if not d <= best:
             best = d
-            names = sorted({(pts.line_name if vary == "line" else pts.load_name)[k] for k in ks})
             where = (f"{pts.name[hi]} against {pts.name[lo]}" if hi != lo
-                     else f"{', '.join(names)}: no change")
+                     else _no_change(pts.name[ks[0]], vary))
     return best, where
+
+
+def _no_change(name: str, vary: str) -> str:
+    """A set of corners whose mean output does not move, named without the varied axis."""
+    parts = name.split(", ")
+    rest = ", ".join(parts[2:])
+    if vary == "line":
+        return f"{parts[1]}, {rest}: the same at low, nominal and high line"
+    return f"{parts[0]}, {rest}: the same at the least and the full load"
 
 
 def regulation_checks(ctx, L: Ledger, cr: CornerResult, reg) -> list[Check]:
