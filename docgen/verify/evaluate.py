@@ -47,11 +47,12 @@ def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[
                 "no number is reported that was not converged to")
         vid = f"engine.{chk.id.split('.', 1)[1]}"
         where = cr.corners.name[k]
+        title = f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)"
         if chk.metric == "holdup":
-            where += f"; mains lost at the trough, down to {reg.holdup_stop}"
+            title = (f"Hold-up time (engine, worst corner): mains lost at the trough, down to "
+                     f"{reg.holdup_stop}")
         L.measured(vid, ENGINE_EQUATIONS.get(chk.metric, eq.ENGINE), chk.symbol, value,
-                   chk.unit, f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst "
-                   "corner)", inputs, where)
+                   chk.unit, title, inputs, where)
         checks.append(make_check(L, chk.id, chk.title, vid, chk.limit_id, chk.sense,
                                  where, w, ref=designator(spec, chk.ref),
                                  requirement=chk.requirement))
