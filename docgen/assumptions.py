@@ -55,8 +55,9 @@ def design_assumptions(reg, n_corners: int, raised: dict[str, str],
                    "inrush (measure them, or use the maker's figures; the maker's stated fuse "
                    "takes precedence).", "common practice"),
         Assumption("assume.not_covered",
-                   "Creepage and clearance distances are not computed; the safety section "
-                   "lists what to check by hand.", "scope of this version"),
+                   "Creepage and clearance distances are not computed; the insulation section "
+                   "gives the working voltage and the conditions to look them up with in the "
+                   "applicable standard.", "scope of this version"),
     ]
     if reg.not_covered:
         out.append(Assumption("assume.not_covered.regulator",
@@ -96,4 +97,27 @@ def _diode_and_frequency(v) -> list[Assumption]:
             f"{lo:g} Hz (the larger ripple), and every worst-case corner is simulated at both "
             f"frequencies, so each worst-case figure and check is the worse of the two (the "
             f"corner names say which).", "common practice"))
+    return out
+
+
+def requirement_assumptions(spec, reg) -> list[Assumption]:
+    """Assumptions that come with optional requirements: the insulation conditions always, the
+    hold-up model and what the kind's regulation figures leave out when they are asked for."""
+    from .stages.insulation import barrier_facts_basis
+
+    out = [Assumption("assume.insulation", barrier_facts_basis(spec), "IEC 60664-1 "
+                      "insulation coordination and IEC 61140 protection classes (from memory)")]
+    out_spec = spec.output[0]
+    if out_spec.hold_up is not None:
+        out.append(Assumption(
+            "assume.holdup",
+            "Hold-up is taken from a mains dropout at the capacitor's trough (the worst "
+            "phase: no charging pulse follows), discharging through the regulator's load law "
+            f"with the capacitor's ESR down to {reg.holdup_stop}. The transformer's and the "
+            "load's own stored energy, and any dip shallower than a full dropout, are not "
+            "counted (conservative).", "charge balance of the capacitor (common practice)"))
+    if reg.regulation_note and (out_spec.line_regulation is not None
+                                or out_spec.load_regulation is not None):
+        out.append(Assumption("assume.regulation.model", reg.regulation_note,
+                              "scope of this version"))
     return out

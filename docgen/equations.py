@@ -454,3 +454,37 @@ I2T_NEED = _eq("fuse.i2t_need", "Melting I2t needed for repeated switch-on", r"\
                "common practice (from memory): pulse derating of the melting I2t")
 LARGEST3 = _eq("max.three", "Largest of three", r"\max($a, $b, $c)",
                {"a": "a", "b": "b", "c": "c"}, DEF)
+
+# ---------------------------------------------------------------- hold-up, regulation, insulation
+CHARGE_BALANCE = ("charge balance of a capacitor, i = C dv/dt (C. K. Alexander, M. N. O. "
+                  "Sadiku, Fundamentals of Electric Circuits, chapter on capacitors: from "
+                  "memory; common practice for hold-up estimates)")
+HOLDUP_CC = _eq("holdup.constant_current", "Hold-up time of a constant-current discharge "
+                "(initial estimate)", r"\frac{$c \cdot ($a - $b)}{$i}",
+                {"c": r"C_{min}", "a": r"V_{C,min}", "b": r"V_{in,min}", "i": r"I_{in,max}"},
+                CHARGE_BALANCE)
+HOLDUP_ENGINE = _eq(
+    "engine.holdup", "Hold-up time after a mains dropout at the trough (numerical)",
+    r"\int_{V_{stop}}^{V_{C,min}} \frac{C\,(1 + R_{ESR}\,\mathrm{d}i/\mathrm{d}v)}{i(v)}"
+    r"\,\mathrm{d}v",
+    {},
+    "the engine's trough V_C,min at each corner, discharged through the kind's load law i(v) "
+    "(the engine's piecewise-linear law, integrated in closed form segment by segment) down to "
+    "the voltage V_stop where the output leaves its limits or the regulator its regulation; "
+    + CHARGE_BALANCE)
+REGULATION_SPREAD = _eq(
+    "engine.regulation", "Regulation: spread of the engine's mean output over a set of corners",
+    r"\frac{\max \bar{V}_{out} - \min \bar{V}_{out}}{V_{out}}", {},
+    "definition of line and load regulation as a fraction of the nominal output (common "
+    "practice; " + SEDRA_SMITH + ")")
+WORKING_RMS = _eq(
+    "insulation.working_rms", "Working voltage across the mains-to-output barrier (RMS)",
+    r"$m + $s", {"m": r"V_{nom}", "s": r"V_{path,NL}"},
+    "conservative bound: the mains and the winding voltage added in phase, the output's "
+    "common taken as earthed (common practice; the product standard's own working-voltage rule, "
+    "e.g. IEC 62368-1 clause 5.4.1.8 (from memory), may give less)")
+WORKING_PEAK = _eq(
+    "insulation.working_peak", "Peak working voltage across the mains-to-output barrier",
+    r"\sqrt{2} \cdot ($m + $s)", {"m": r"V_{hi}", "s": r"V_{path,NL,hi}"},
+    "conservative bound at high line: the mains and the winding peaks added, the output's "
+    "common taken as earthed (common practice)")

@@ -15,7 +15,7 @@ from functools import partial
 from typing import Any
 
 from . import __version__
-from .assumptions import design_assumptions
+from .assumptions import design_assumptions, requirement_assumptions
 from .cautions import STANDING, triggered_cautions
 from .design import Design, Stage
 from .errors import InfeasibleDesign, SpecError
@@ -24,7 +24,17 @@ from .parts.location import library_for
 from .regulators import all_kinds, regulator
 from .spec import LoadedSpec
 from .spec.models import Requirements
-from .stages import mains, margins, model, protection, rectifier, reservoir, transformer
+from .stages import (
+    holdup,
+    insulation,
+    mains,
+    margins,
+    model,
+    protection,
+    rectifier,
+    reservoir,
+    transformer,
+)
 from .stages.context import SizingContext
 from .topology import topology
 from .trace import Ledger, TraceError
@@ -52,6 +62,8 @@ def _stages(reg) -> tuple[tuple[str, Callable[[SizingContext, Ledger], None]], .
         ("model", model.model_circuit),
         ("rectifier", rectifier.size_rectifier),
         ("reservoir", reservoir.stored_energy_and_allowance),
+        ("reservoir", holdup.estimate_holdup),
+        ("insulation", insulation.record_insulation),
     )
 
 
@@ -66,6 +78,7 @@ def _stage_text(reg, n_corners: int) -> list[Stage]:
         Stage("model", model.TITLE, model.INTRO),
         Stage("rectifier", rectifier.TITLE, rectifier.INTRO),
         Stage("protection", protection.TITLE, protection.INTRO),
+        Stage("insulation", insulation.TITLE, insulation.INTRO),
         Stage("corners", "Worst-case corners (waveform engine)",
               f"Each value below is the worst over the {n_corners} corners named in the "
               "worst-case section, from the waveform engine; the corner is given beside it."),
@@ -160,7 +173,8 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
         checks=checks,
         parts=bom_lines(ctx, L, reg),
         assumptions=design_assumptions(reg, cr.n_corners, ctx.floors.reasons, ctx.conflicts,
-                                       L),
+                                       L)
+        + requirement_assumptions(spec, reg),
         cautions=cautions,
         status=overall_status(checks),
         tool_version=__version__,

@@ -107,6 +107,23 @@ def results_schema() -> dict[str, Any]:
     caution = _obj({"id": _STR, "title": _STR, "text": _STR, "source": _STR,
                     "triggered_by": _STR})
     sha = {"type": "string", "pattern": "^[0-9a-f]{64}$"}
+    given = {"type": "boolean"}
+    insulation = _obj({
+        "basis": {"type": "object", "additionalProperties": _STR},
+        "equipment_class": {"enum": ["I", "II"]}, "equipment_class_given": given,
+        "output_elv": given, "insulation_needed": _STR, "insulation_reason": _STR,
+        "insulation_source": _STR,
+        "overvoltage_category": {"enum": ["I", "II", "III", "IV"]},
+        "overvoltage_category_given": given,
+        "pollution_degree": {"type": "integer", "minimum": 1, "maximum": 4},
+        "pollution_degree_given": given,
+        "material_group": {"enum": ["I", "II", "IIIa", "IIIb"]}, "material_group_given": given,
+        "conditions_source": _STR, "distances_computed": {"const": False},
+        "distances_standard": _STR,
+        "working_voltage_ids": {"type": "array", "items": _STR}},
+        description="The mains-to-output barrier: the insulation it needs and the conditions "
+        "its creepage and clearance are looked up under (never computed); the working "
+        "voltages are the values named in working_voltage_ids.")
     full = {
         "schema": {"const": 1}, "status": _STATUS, "infeasible_reason": _STR,
         "spec_path": _STR, "spec_sha256": sha, "tool_version": _STR, "counts": counts,
@@ -129,6 +146,7 @@ def results_schema() -> dict[str, Any]:
              "difference": _NUM})},
         "summary": _obj({"largest_stress": {"type": "array", "items": {"type": "object"}},
                          "heat": {"type": "array", "items": {"type": "object"}}}),
+        "insulation": {"oneOf": [{"type": "null"}, insulation]},
     }
     return {
         "$schema": DRAFT, "$id": BASE_ID + "results.schema.json",

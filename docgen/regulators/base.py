@@ -139,6 +139,18 @@ class Regulator:
         """Raise the kind's power classes and heat budget when the engine finds them short."""
         return False
 
+    # -- hold-up and regulation --------------------------------------------------------------
+    # What the kind's line and load regulation figures leave out, in plain words ("" when the
+    # engine's output model carries the whole dependence on line and load).
+    regulation_note = ""
+    # What the hold-up stops at, in words, for the check's corner.
+    holdup_stop = "the capacitor voltage at the output's lower limit"
+
+    def holdup_floor(self, L: Ledger, pts: Any) -> np.ndarray:
+        """Capacitor voltage below which the output leaves its limits (a regulated kind: its
+        regulation), per operating point. By default the capacitor voltage is the output."""
+        return np.full(len(pts.load), L["output.v_lower_limit"])
+
     # -- document ----------------------------------------------------------------------------
     def cautions(self, L: Ledger) -> list[Caution]:
         """Cautions this design of the kind triggers (written from its figures)."""
@@ -171,6 +183,14 @@ def record_output(ctx: SizingContext, L: Ledger) -> None:
             defaulted="ambient_max" not in env.model_fields_set)
     L.given("env.t_min", r"T_{A,min}", env.ambient_min, "degC", "Lowest ambient temperature",
             defaulted="ambient_min" not in env.model_fields_set)
+    for key, vid, sym, unit, title in (
+            ("hold_up", "output.hold_up", r"t_{hold,req}", "s", "Required hold-up time"),
+            ("line_regulation", "output.line_regulation", r"\delta_{line,max}", "%",
+             "Line regulation allowed (full load, over the mains range)"),
+            ("load_regulation", "output.load_regulation", r"\delta_{load,max}", "%",
+             "Load regulation allowed (nominal mains, least to full load)")):
+        if getattr(out, key) is not None:
+            L.given(vid, sym, getattr(out, key), unit, title)
     L.calc("output.v_upper_limit", eq.BOUND_HIGH, r"V_{out,hi,lim}", "V", "Output upper limit",
            {"x": "output.v_nom", "t": "output.tolerance"}, lambda x, t: x * (1 + t))
     L.calc("output.v_lower_limit", eq.BOUND_LOW, r"V_{out,lo,lim}", "V", "Output lower limit",

@@ -131,6 +131,12 @@ class Dropper(Regulator):
                 "v_out_mean": m["v_c_mean"] - drop, "v_out_pp": m["ripple_pp"],
                 "p_r_series": pts.load * drop, "p_out": (m["v_c_mean"] - drop) * pts.load}
 
+    holdup_stop = ("the capacitor voltage where the output, after the resistor's drop, is at "
+                   "its lower limit")
+
+    def holdup_floor(self, L, pts):
+        return L["output.v_lower_limit"] + pts.load * pts.r
+
     def output_wave(self, L, wave, load, v_z, r):
         return wave["v_c"] - load * r
 

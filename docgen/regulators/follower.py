@@ -288,6 +288,19 @@ class Follower(Regulator):
         k = L["zener.r_z"] / (r + L["zener.r_z"])
         return np.minimum(v_z + (v_c - v_c.mean()) * k, v_c) - L["q.v_be"]
 
+    holdup_stop = ("the capacitor voltage where the output, following the input once the zener "
+                   "has stopped conducting, reaches its lower limit (V_BE at its largest, the "
+                   "base current drawn through R1)")
+    regulation_note = ("The follower's output is modelled as the zener voltage of each corner "
+                       "less a fixed V_BE, so these figures show only a loss of regulation at "
+                       "the trough; the change of V_BE with load and of the zener voltage with "
+                       "its current (r_z) are not in them.")
+
+    def holdup_floor(self, L, pts):
+        # R1 is sized so the zener just keeps its minimum current at the trough, so the
+        # regulation itself ends almost at once; the output then follows the input
+        return L["output.v_lower_limit"] + L["q.v_be_max"] + pts.r * pts.load / (L["q.h_fe"] + 1)
+
     def derived_metrics(self, L, pts, m):
         beta = L["q.h_fe"]
         i_b = pts.load / (beta + 1)

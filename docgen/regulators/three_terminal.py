@@ -263,6 +263,14 @@ class ThreeTerminal(Regulator):
         v_c = wave["v_c"]
         return np.minimum(v_z + (v_c - v_c.mean()) * rr, v_c - L["reg.dropout_max"])
 
+    holdup_stop = "the output setpoint plus the worst-case dropout"
+    regulation_note = ("The regulator holds its output at the setpoint of each corner in the "
+                       "model, so these figures show only a loss of regulation at the trough; "
+                       "the maker's line and load regulation figures are to be added to them.")
+
+    def holdup_floor(self, L, pts):
+        return pts.v_z + L["reg.dropout_max"]
+
     def derived_metrics(self, L, pts, m):
         near = m["v_c_min"] < L["reg.v_in_floor"] + L["reg.rr_window"]
         rr_db = np.where(near, L["reg.rr_low"], L["reg.rr"])

@@ -8,6 +8,8 @@ zener model; from memory).
 
 from __future__ import annotations
 
+import numpy as np
+
 from .. import equations as eq
 from ..verify.checks import COMMON_CHECKS, OUTPUT_HIGH, OUTPUT_LOW, OUTPUT_RIPPLE, EngineCheck
 from . import zener_sizing
@@ -136,6 +138,18 @@ class Zener(Regulator):
 
         return Circuit(**common, load="zener", r_series=pts.r, v_z0=pts.v_z,
                        r_z=L["zener.r_z"], i_out=pts.load)
+
+    holdup_stop = "the capacitor voltage where the zener node is at the output's lower limit"
+
+    def holdup_floor(self, L, pts):
+        # Capacitor voltage where the node reaches the lower limit: below the knee the node is
+        # the capacitor less R times the load; above it the zener's r_z divides (the engine's
+        # load law, docgen.engine.loads).
+        v_lo = L["output.v_lower_limit"]
+        r, r_z = pts.r, L["zener.r_z"]
+        off = v_lo + r * pts.load
+        on = pts.v_z + r * pts.load + (v_lo - pts.v_z) * (r_z + r) / r_z
+        return np.where(v_lo <= pts.v_z, off, on)
 
     def derived_metrics(self, L, pts, m):
         return {"headroom": m["v_c_min"] - m["v_out_mean"]}

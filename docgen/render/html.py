@@ -17,6 +17,7 @@ from .bom import bom_rows
 from .mathsvg import formula_data_uri
 from .netlist import netlist
 from .summary import summary_notes
+from .results_json import insulation_facts
 
 
 @lru_cache(maxsize=1)
@@ -218,6 +219,7 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
             if key in design.monte_carlo.get("quantities", {})
         ],
         "values": design.values,
+        "insulation": insulation_facts(design),
     }
 
 

@@ -94,7 +94,17 @@ def results_dict(design: Design) -> dict[str, Any]:
         "cautions": [asdict(c) for c in design.cautions],
         "initial_estimates": initial_vs_verified(design.values),
         "summary": summary_facts(design),
+        "insulation": insulation_facts(design),
     }
+
+
+def insulation_facts(design: Design) -> dict[str, Any] | None:
+    """The mains-to-output barrier's facts (the working voltages are traced values)."""
+    from ..stages.insulation import barrier_facts
+
+    if "insulation.v_work_rms" not in design.values:
+        return None
+    return barrier_facts(design.requirements, design.values)
 
 
 def results_json(design: Design) -> str:

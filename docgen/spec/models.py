@@ -439,6 +439,18 @@ class Output(Section):
     resistor_power: Power | None = q(None, "W", "Fixed part: series-resistor power rating.")
     resistor_tolerance: Fraction = q(0.05, "%", "Series-resistor tolerance.",
                                      "common practice (E24 +/-5 % grade)")
+    hold_up: Duration | None = q(
+        None, "s", "Hold-up time: how long the output must stay within its limits (a regulator "
+        "in regulation) after the mains drops out, checked at the worst corner (low line, full "
+        "load, least capacitance, dropout at the capacitor's trough); e.g. \"20 ms\". When "
+        "given and the capacitor is sized, the capacitance is raised until it holds up.")
+    line_regulation: PositiveFraction | None = q(
+        None, "%", "Largest change of the mean output voltage over the mains range at full "
+        "load, as a fraction of the nominal output; checked on the engine's corners.")
+    load_regulation: PositiveFraction | None = q(
+        None, "%", "Largest change of the mean output voltage from the least load to full load "
+        "at nominal mains, as a fraction of the nominal output; checked on the engine's "
+        "corners.")
     zener: Zener = Field(default_factory=Zener, description="Zener diode data.")
     linear: LinearRegulator = Field(default_factory=LinearRegulator,
                                     description="Three-terminal regulator data.")
@@ -537,6 +549,37 @@ class Protection(Section):
         return self
 
 
+class Insulation(Section):
+    """What the mains-to-output insulation is stated against (not computed: see the document)."""
+
+    equipment_class: Literal["I", "II"] = Field(
+        default="II",
+        description="Protection class of the equipment: \"I\" (accessible metal on protective "
+        "earth) or \"II\" (double or reinforced insulation, no reliance on earth).",
+        json_schema_extra={"unit": "", "default_source": "common practice: class II, the "
+                           "stricter barrier, when the enclosure is not known"},
+    )
+    overvoltage_category: Literal["I", "II", "III", "IV"] = Field(
+        default="II",
+        description="Overvoltage category of the mains connection (IEC 60664-1).",
+        json_schema_extra={"unit": "", "default_source": "common practice: OVC II for "
+                           "equipment plugged into a building's socket outlets"},
+    )
+    pollution_degree: int = Field(
+        default=2, ge=1, le=4,
+        description="Pollution degree of the environment around the insulation (IEC 60664-1).",
+        json_schema_extra={"unit": "", "default_source": "common practice: PD 2 for office and "
+                           "household equipment"},
+    )
+    material_group: Literal["I", "II", "IIIa", "IIIb"] = Field(
+        default="IIIb",
+        description="Material group of the insulation (by comparative tracking index) for "
+        "creepage distances.",
+        json_schema_extra={"unit": "", "default_source": "common practice: IIIb when the "
+                           "board material's CTI is not known"},
+    )
+
+
 MAX_SAMPLES = 10_000
 
 
@@ -588,6 +631,7 @@ class Requirements(Section):
     protection: Protection = Field(default_factory=Protection)
     analysis: Analysis = Field(default_factory=Analysis)
     parts: Parts = Field(default_factory=Parts)
+    insulation: Insulation = Field(default_factory=Insulation)
 
     @model_validator(mode="after")
     def _rails(self) -> Requirements:

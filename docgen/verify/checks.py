@@ -97,6 +97,11 @@ COMMON_CHECKS = (
     EngineCheck("check.cap_ripple_current", "Capacitor ripple current <= rating", "i_c_rms",
                 "max", "reservoir.i_ripple_rating", r"I_{C,rms}", "A", "C1", ""),
 )
+# Hold-up through a mains dropout (only when the requirements ask for it: the limit's id exists
+# only then). Worst over the corners: low line, full load, least capacitance.
+HOLDUP = EngineCheck("check.holdup", "Hold-up time >= required", "holdup", "min",
+                     "output.hold_up", r"t_{hold}", "s", "C1", "output[0].hold_up")
+COMMON_CHECKS = (*COMMON_CHECKS, HOLDUP)
 # Output checks shared by several regulator kinds.
 OUTPUT_RIPPLE = EngineCheck("check.output_ripple", "Output ripple <= limit", "v_out_pp", "max",
                             "output.ripple_max", r"V_{r,out}", "V", "", "output[0].ripple_max")

@@ -27,6 +27,7 @@ from ..engine import Circuit, simulate, switch_on
 from ..stages.diodes import engine_diode
 from ..topology import topology as topology_record
 from ..trace import Ledger
+from .holdup import holdup_times
 
 # Inputs the circuit model can be built from, for the trace of every engine value.
 MODEL_INPUTS = (
@@ -229,9 +230,12 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
     nominal = nominal_corner(corners)
     trough = max((k for k, n in enumerate(corners.name) if n.startswith("low line, full load, C -")),
                  key=lambda k: (corners.v_z[k], corners.r[k], -corners.t_d[k], -corners.freq[k]))
-    ss = simulate(_circuit(L, pts, topology, reg), keep_waveforms=(nominal, trough))
+    circuit = _circuit(L, pts, topology, reg)
+    ss = simulate(circuit, keep_waveforms=(nominal, trough))
     metrics = design_metrics(L, pts, {name: getattr(ss, name) for name in STEADY_FIGURES},
                              topology, reg)
+    if "output.hold_up" in L:
+        metrics["holdup"] = holdup_times(L, reg, pts, metrics["v_c_min"], circuit)
     surge = _surge(L, corners, ss, topology, reg) if surge else {}
     return CornerResult(
         corners=corners, samples=mc, metrics=metrics, converged=ss.converged,

@@ -15,11 +15,14 @@ from ..topology import topology
 from ..trace import Ledger
 from .checks import make_check
 from .corners import CornerResult, model_inputs
+from .regulation import regulation_checks
 from .worst import worst_corner
 
 # Ids the evaluation writes (stage "corners"): engine figures and capacitor life.
 WRITES = ("engine.", "reservoir.life", "reservoir.t_core", "reservoir.r_th", "env.required_life")
 LIFE_CAP = 15 * 8766 * 3600.0  # s; 15 years of 8766 h
+# Engine figures computed from the engine's waveforms by a rule of their own.
+ENGINE_EQUATIONS = {"holdup": eq.HOLDUP_ENGINE}
 
 
 def designator(spec, ref: str) -> str:
@@ -46,9 +49,12 @@ def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[
         if not chk.nominal_line_only:
             value, where = worse_sample(cr, chk.metric, chk.sense, value, where)
         vid = f"engine.{chk.id.split('.', 1)[1]}"
-        L.measured(vid, eq.ENGINE, chk.symbol, value, chk.unit,
-                   f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)",
-                   inputs, where)
+        title = f"{chk.title.split(' <=')[0].split(' >=')[0]} (engine, worst corner)"
+        if chk.metric == "holdup":
+            title = (f"Hold-up time (engine, worst corner): mains lost at the trough, down to "
+                     f"{reg.holdup_stop}")
+        L.measured(vid, ENGINE_EQUATIONS.get(chk.metric, eq.ENGINE), chk.symbol, value,
+                   chk.unit, title, inputs, where)
         checks.append(make_check(L, chk.id, chk.title, vid, chk.limit_id, chk.sense,
                                  where, w, ref=designator(spec, chk.ref),
                                  requirement=chk.requirement))
@@ -88,6 +94,7 @@ def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[
                    where)
     L.calc("engine.efficiency", eq.EFFICIENCY, r"\eta", "%", "Efficiency at nominal, full load",
            {"o": "engine.p_out_nominal", "i": "engine.p_in_nominal"}, lambda o, i: o / i)
+    checks += regulation_checks(ctx, L, cr, reg)
     checks += hand_checks(ctx, L, cr, reg)
     return checks
 

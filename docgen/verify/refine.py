@@ -76,7 +76,8 @@ def raise_floors(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> bool:
             "va", need, f"the engine found {fq(i, 'A')} RMS in the secondary at {where}, above "
             f"the {fq(L['transformer.i_rated'], 'A')} rating{derated} of a "
             f"{fq(L['transformer.va'], 'VA')} transformer")
-    if not fixed_t and reg.trough_short(v):
+    trough_short = not fixed_t and reg.trough_short(v)
+    if trough_short:
         changed |= _raise_transformer_for_trough(ctx, L)
     else:
         changed |= reg.raise_bias_floor(ctx, L, v)
@@ -98,6 +99,8 @@ def raise_floors(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> bool:
             f"{fq(L['reservoir.i_ripple_rating'] * (1 - band), 'A')} (the "
             f"{fq(L['reservoir.i_ripple_rating'], 'A')} rating at "
             f"{fq(L['mains.ripple_freq'], 'Hz')} less the warning band)")
+    if not trough_short:  # a higher trough lengthens the hold-up: see it first
+        changed |= _raise_capacitance_for_holdup(ctx, L, v, reg)
     changed |= reg.raise_part_floors(ctx, L, v)
     if not spec.rectifier.part and v.short("check.bridge_current", "rect.i_allowed", "max"):
         i, where = v.worst("check.bridge_current")
@@ -105,6 +108,30 @@ def raise_floors(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> bool:
             "bridge_current", i / spec.margins.diode_current_derating / (1 - band),
             f"the engine found {fq(i, 'A')} average output current at {where}")
     return changed
+
+
+def _raise_capacitance_for_holdup(ctx: SizingContext, L: Ledger, v: PassVerdict, reg) -> bool:
+    """Too short a hold-up: the capacitance that carries the largest input current from the
+    trough to the kind's floor for the time required (charge balance, C dV = I dt). Where the
+    trough lies close to (or below) the floor, a larger capacitor also raises the trough towards
+    the crest, so half the crest-to-floor span is taken instead; the next pass re-checks."""
+    spec = ctx.spec
+    if spec.reservoir.capacitance is not None or spec.reservoir.part:
+        return False
+    if not v.short("check.holdup", "output.hold_up", "min"):
+        return False
+    t, k = worst_corner(v.cr, v.checks["check.holdup"])
+    crest = float(v.cr.corner_metric("v_c_max")[k])
+    trough = float(v.cr.corner_metric("v_c_min")[k])
+    floor = float(reg.holdup_floor(L, v.cr.corners)[k])
+    if not crest > floor:
+        return False  # no capacitance can hold it up: the trough rules raise the voltage
+    span = max(trough - floor, 0.5 * (crest - floor))
+    c_low = L["regulator.i_in_max"] * L["output.hold_up"] / span
+    need = c_low * L["reservoir.c"] / float(v.cr.corners.c[k]) * (1 + v.band)
+    return ctx.floors.raise_to(
+        "capacitance", need, f"the engine found a hold-up of {fq(t, 's')} at "
+        f"{v.cr.corners.name[k]}, short of the {fq(L['output.hold_up'], 's')} required")
 
 
 def _raise_transformer_for_trough(ctx: SizingContext, L: Ledger) -> bool:

@@ -12,7 +12,16 @@ from docgen import pipeline
 from docgen.parts.location import library_for
 from docgen.regulators import regulator
 from docgen.spec import load_requirements
-from docgen.stages import mains, margins, model, protection, rectifier, reservoir, transformer
+from docgen.stages import (
+    insulation,
+    mains,
+    margins,
+    model,
+    protection,
+    rectifier,
+    reservoir,
+    transformer,
+)
 from docgen.stages.context import SizingContext
 from docgen.verify import evaluate
 
@@ -22,7 +31,8 @@ from ..golden.snapshot import SPECS
 STAGE_WRITES = {"margins": margins.WRITES, "mains": mains.WRITES,
                 "transformer": transformer.WRITES, "reservoir": reservoir.WRITES,
                 "model": model.WRITES, "rectifier": rectifier.WRITES,
-                "protection": protection.WRITES, "corners": evaluate.WRITES}
+                "protection": protection.WRITES, "corners": evaluate.WRITES,
+                "insulation": insulation.WRITES}
 SINGLE_RAIL = [s for s in SPECS if "split" not in s.stem]
 
 
