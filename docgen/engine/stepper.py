@@ -29,8 +29,12 @@ import numpy as np
 from .circuit import Params
 from .loads import Load, typical_current
 from .omega import wright_omega
+from .pointwise import integrate_points
 
 _R_MIN = 1e-12  # ohm; keeps the closed form finite for a path with no resistance at all
+# Up to this many points a pass steps each point with plain floats (pointwise.py): numpy's fixed
+# cost per array operation would be most of the cost of a step.
+POINTWISE_MAX = 4
 
 
 @dataclass
@@ -125,6 +129,12 @@ def integrate(
     variable describes both. The final signs are returned in ``PassResult.sign_end``.
     """
     nsteps = phase.shape[0] - 1
+    if p.n <= POINTWISE_MAX and not stop_after_pulse:
+        dt = np.diff(phase, axis=0) / p.omega
+        theta = np.maximum(0.5, 1.0 - fast_time_constant(p, load, dt) / dt)
+        v_c, d_vc, out_i, out_v, i_end, sign_end = integrate_points(
+            p, load, phase, v_c0, i0, theta, store, sensitivity, sign0)
+        return PassResult(v_c, d_vc, out_i, out_v, i_end, sign_end)
     vpk, c, esr, ind = p.vpk, p.c, p.esr, p.l_s
     has_l = ind > 0
     sin = np.sin(phase)
