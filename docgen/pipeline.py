@@ -101,21 +101,16 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     if loaded.requirements.rectifier.topology == "split":
         from .rails import run_split
 
-        return run_split(loaded, library, samples, run_rail)
+        return run_split(loaded, library, samples, run_rail, rail_values)
     return run_rail(loaded, loaded.requirements, library, samples)
 
 
-def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | None, *,
-             shared: str = "") -> Design:
-    """One rail: a single output fed by its own rectifier and reservoir. ``shared`` says why
-    the transformer in ``spec`` was chosen for both rails of a split supply (empty otherwise)."""
+def _settle(loaded: LoadedSpec, spec: Requirements, library, shared: str):
+    """Size and verify at the corners until no floor is raised: (ctx, ledger, corners, kind)."""
     ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=library,
                         shared_transformer=shared)
-    n_samples = spec.analysis.samples if samples is None else samples
-    env = spec.environment
     reg = regulator(spec.output[0].regulator)
-    verify = partial(analyse, topology=spec.rectifier.topology, seed=spec.analysis.seed,
-                     t_min=env.ambient_min, t_max=env.ambient_max, reg=reg)
+    verify = _verifier(spec, reg)
     for _ in range(MAX_PASSES):
         ctx.picks.clear()
         ctx.conflicts.clear()
@@ -123,8 +118,32 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
         cr = _guarded(partial(verify, L, samples=0, surge=False))
         if not raise_floors(ctx, L, cr, reg):
             break
+    return ctx, L, cr, reg
+
+
+def _verifier(spec: Requirements, reg):
+    env = spec.environment
+    return partial(analyse, topology=spec.rectifier.topology, seed=spec.analysis.seed,
+                   t_min=env.ambient_min, t_max=env.ambient_max, reg=reg)
+
+
+def rail_values(loaded: LoadedSpec, spec: Requirements, library) -> dict:
+    """The settled sizing and worst-corner engine figures of one rail, without the Monte Carlo
+    run, the switch-on surge or the document: what a split supply needs to choose the
+    transformer both rails share."""
+    ctx, L, cr, reg = _settle(loaded, spec, library, "")
+    engine_checks(ctx, L, cr, reg)
+    return dict(L.values)
+
+
+def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | None, *,
+             shared: str = "") -> Design:
+    """One rail: a single output fed by its own rectifier and reservoir. ``shared`` says why
+    the transformer in ``spec`` was chosen for both rails of a split supply (empty otherwise)."""
+    ctx, L, cr, reg = _settle(loaded, spec, library, shared)
+    n_samples = spec.analysis.samples if samples is None else samples
     # Final run with the Monte Carlo samples and the switch-on surge on the settled design.
-    cr = _guarded(partial(verify, L, samples=n_samples))
+    cr = _guarded(partial(_verifier(spec, reg), L, samples=n_samples))
     checks = engine_checks(ctx, L, cr, reg)
     checks += _guarded(partial(protection_checks, ctx, L, cr))
     checks.sort(key=lambda c: ALL_CHECK_IDS.index(c.id) if c.id in ALL_CHECK_IDS else 100)

@@ -45,17 +45,15 @@ def _rail_spec(spec: Requirements, index: int, transformer=None) -> Requirements
     return spec.model_copy(update=update)
 
 
-def _shared_transformer(spec: Requirements, a: Design, b: Design, library):
-    """A transformer both rails can share: the larger half voltage, the combined current."""
+def _shared_transformer(spec: Requirements, a: dict, b: dict, library):
+    """A transformer both rails can share: the larger half voltage, the combined current.
+    ``a`` and ``b``: the values of each rail sized on its own."""
     t = spec.transformer
-    if t.part or t.secondary is not None:
-        return t
     band = spec.margins.warn_band
-    v = max(a.values["transformer.v_rated"].value, b.values["transformer.v_rated"].value)
-    i_tot = math.hypot(a.values["engine.transformer_current"].value,
-                       b.values["engine.transformer_current"].value)
-    va_need = max(v * i_tot / (1 - band), a.values["transformer.va"].value,
-                  b.values["transformer.va"].value)
+    v = max(a["transformer.v_rated"].value, b["transformer.v_rated"].value)
+    i_tot = math.hypot(a["engine.transformer_current"].value,
+                       b["engine.transformer_current"].value)
+    va_need = max(v * i_tot / (1 - band), a["transformer.va"].value, b["transformer.va"].value)
     if library is not None:
         from .parts.select import select_transformer
 
@@ -85,16 +83,22 @@ def _check_neg(c: Check) -> Check:
                                ref=REF_MAP.get(c.ref, c.ref))
 
 
-def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail) -> Design:
+def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail, rail_values
+              ) -> Design:
     """Both rails of a split supply, sized and verified by ``run_rail`` (the single-rail
-    pipeline, passed in so that this module does not import it)."""
+    pipeline, passed in so that this module does not import it). Unless the file fixes the
+    transformer, ``rail_values`` first sizes each rail on its own (corners only: no Monte Carlo,
+    no switch-on run, no document) to choose the transformer both share."""
     spec = loaded.requirements
     ipos = next(i for i, o in enumerate(spec.output) if o.polarity == "positive")
     ineg = 1 - ipos
-    a = run_rail(loaded, _rail_spec(spec, ipos), library, 0)
-    b = run_rail(loaded, _rail_spec(spec, ineg), library, 0)
-    shared = _shared_transformer(spec, a, b, library)
     fixed = bool(spec.transformer.part) or spec.transformer.secondary is not None
+    if fixed:
+        shared = spec.transformer
+    else:
+        shared = _shared_transformer(spec, rail_values(loaded, _rail_spec(spec, ipos), library),
+                                     rail_values(loaded, _rail_spec(spec, ineg), library),
+                                     library)
     # A transformer docgen chose for both rails is passed to each rail as a sized one, never
     # as if the file had named it.
     note = "" if fixed else ("chosen for both rails: the larger half-winding voltage, the "
