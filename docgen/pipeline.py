@@ -30,7 +30,7 @@ from .topology import topology
 from .trace import Ledger, TraceError
 from .undefined import undefined_text
 from .verify.checks import overall_status
-from .verify.corners import analyse, corner_rows
+from .verify.corners import analyse, analyse_together, corner_rows
 from .verify.evaluate import engine_checks, protection_checks
 from .verify.montecarlo import histogram_samples, summarise
 from .verify.refine import raise_floors
@@ -101,7 +101,7 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     if loaded.requirements.rectifier.topology == "split":
         from .rails import run_split
 
-        return run_split(loaded, library, samples, run_rail, rail_values)
+        return run_split(loaded, library, samples, run_rails, rail_values)
     return run_rail(loaded, loaded.requirements, library, samples)
 
 
@@ -140,10 +140,29 @@ def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | Non
              shared: str = "") -> Design:
     """One rail: a single output fed by its own rectifier and reservoir. ``shared`` says why
     the transformer in ``spec`` was chosen for both rails of a split supply (empty otherwise)."""
-    ctx, L, cr, reg = _settle(loaded, spec, library, shared)
-    n_samples = spec.analysis.samples if samples is None else samples
-    # Final run with the Monte Carlo samples and the switch-on surge on the settled design.
-    cr = _guarded(partial(_verifier(spec, reg), L, samples=n_samples))
+    return run_rails(loaded, [spec], library, samples, shared=shared)[0]
+
+
+def run_rails(loaded: LoadedSpec, specs: list[Requirements], library, samples: int | None, *,
+              shared: str = "") -> list[Design]:
+    """Rails of one file (each a single output, see run_rail), each sized on its own; the final
+    corner and Monte Carlo runs of all of them go through the engine in one call."""
+    settled = [_settle(loaded, spec, library, shared) for spec in specs]
+    jobs = []
+    for spec, (_, L, _, reg) in zip(specs, settled, strict=True):
+        env = spec.environment
+        jobs.append(dict(L=L, topology=spec.rectifier.topology, seed=spec.analysis.seed,
+                         t_min=env.ambient_min, t_max=env.ambient_max, reg=reg,
+                         samples=spec.analysis.samples if samples is None else samples))
+    # Final run with the Monte Carlo samples and the switch-on surge on the settled designs.
+    results = _guarded(partial(analyse_together, jobs))
+    return [_document(loaded, spec, ctx, L, cr, reg)
+            for spec, (ctx, L, _, reg), cr in zip(specs, settled, results, strict=True)]
+
+
+def _document(loaded: LoadedSpec, spec: Requirements, ctx: SizingContext, L: Ledger, cr,
+              reg) -> Design:
+    """Checks, cautions, parts and texts of one settled, verified rail."""
     checks = engine_checks(ctx, L, cr, reg)
     checks += _guarded(partial(protection_checks, ctx, L, cr))
     checks.sort(key=lambda c: ALL_CHECK_IDS.index(c.id) if c.id in ALL_CHECK_IDS else 100)

@@ -83,10 +83,11 @@ def _check_neg(c: Check) -> Check:
                                ref=REF_MAP.get(c.ref, c.ref))
 
 
-def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail, rail_values
+def run_split(loaded: LoadedSpec, library, samples: int | None, run_rails, rail_values
               ) -> Design:
-    """Both rails of a split supply, sized and verified by ``run_rail`` (the single-rail
-    pipeline, passed in so that this module does not import it). Unless the file fixes the
+    """Both rails of a split supply, sized and verified by ``run_rails`` (the single-rail
+    pipeline, passed in so that this module does not import it; the final engine run of both
+    rails is one call). Unless the file fixes the
     transformer, ``rail_values`` first sizes each rail on its own (corners only: no Monte Carlo,
     no switch-on run, no document) to choose the transformer both share."""
     spec = loaded.requirements
@@ -103,8 +104,8 @@ def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail, rail_v
     # as if the file had named it.
     note = "" if fixed else ("chosen for both rails: the larger half-winding voltage, the "
                              "combined current")
-    a = run_rail(loaded, _rail_spec(spec, ipos, shared), library, samples, shared=note)
-    b = run_rail(loaded, _rail_spec(spec, ineg, shared), library, samples, shared=note)
+    a, b = run_rails(loaded, [_rail_spec(spec, ipos, shared), _rail_spec(spec, ineg, shared)],
+                     library, samples, shared=note)
     return _merge(loaded, spec, a, b, library)
 
 

@@ -32,9 +32,10 @@ from .omega import wright_omega
 from .pointwise import integrate_points
 
 _R_MIN = 1e-12  # ohm; keeps the closed form finite for a path with no resistance at all
-# Up to this many points a pass steps each point with plain floats (pointwise.py): numpy's fixed
-# cost per array operation would be most of the cost of a step.
-POINTWISE_MAX = 16
+# Up to this many points (the 24 corners of a three-terminal rail) a pass steps each point with
+# plain floats (pointwise.py): numpy's fixed cost per array operation would be most of the cost
+# of a step.
+POINTWISE_MAX = 24
 
 
 @dataclass

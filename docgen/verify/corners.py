@@ -21,7 +21,7 @@ from typing import Any
 
 import numpy as np
 
-from ..engine import Circuit, simulate, switch_on
+from ..engine import Circuit, concat_circuits, simulate, switch_on
 from ..topology import topology as topology_record
 from ..trace import Ledger
 
@@ -162,6 +162,32 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
             reg, surge: bool = True) -> CornerResult:
     """Simulate every corner and Monte Carlo sample of the design in one engine call, the
     switch-on surge too (unless ``surge`` is False), and add the figures derived from them."""
+    return analyse_together([dict(L=L, topology=topology, samples=samples, seed=seed,
+                                  t_min=t_min, t_max=t_max, reg=reg, surge=surge)])[0]
+
+
+def analyse_together(jobs: list[dict]) -> list[CornerResult]:
+    """``analyse`` for several designs (each job: analyse's arguments by name), with the
+    corners and samples of all of them in one engine call where their circuits have the same
+    topology and load law (the two rails of a split supply)."""
+    prepared = [_prepare(**job) for job in jobs]
+    circuits = [c for _, c in prepared]
+    if len({(c.topology, c.load) for c in circuits}) == 1 and len(circuits) > 1:
+        sizes = [c.n for c in circuits]
+        offsets = np.cumsum([0] + sizes)
+        keep = [int(o) + k for o, (prep, _) in zip(offsets, prepared, strict=False)
+                for k in (prep["nominal"], prep["trough"])]
+        whole = simulate(concat_circuits(circuits), keep_waveforms=keep)
+        results = [whole.take(int(a), int(b)) for a, b in zip(offsets[:-1], offsets[1:],
+                                                                strict=True)]
+    else:
+        results = [simulate(c, keep_waveforms=(prep["nominal"], prep["trough"]))
+                   for prep, c in prepared]
+    return [_complete(ss=ss, **prep) for (prep, _), ss in zip(prepared, results, strict=True)]
+
+
+def _prepare(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_max: float, *,
+             reg, surge: bool = True) -> tuple[dict, Circuit]:
     corners = corner_points(L, reg)
     mc = sample_points(L, samples, seed, t_min, t_max, reg) if samples > 0 else None
     pts = _concat(corners, mc)
@@ -170,7 +196,13 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
                    if n.startswith("nominal mains, full load, C -"))
     trough = max((k for k, n in enumerate(corners.name) if n.startswith("low line, full load, C -")),
                  key=lambda k: (corners.v_z[k], corners.r[k]))
-    ss = simulate(_circuit(L, pts, topology, reg), keep_waveforms=(nominal, trough))
+    prep = dict(L=L, topology=topology, reg=reg, surge=surge, corners=corners, mc=mc, pts=pts,
+                nominal=nominal, trough=trough)
+    return prep, _circuit(L, pts, topology, reg)
+
+
+def _complete(L: Ledger, topology: str, reg, surge: bool, corners: PointSet, mc, pts: PointSet,
+              nominal: int, trough: int, ss) -> CornerResult:
     metrics: dict[str, Any] = {name: getattr(ss, name) for name in (
         "v_c_max", "v_c_min", "v_c_mean", "ripple_pp", "conduction_angle", "i_d_peak",
         "i_d_avg", "i_d_rms", "i_sec_rms", "va_sec", "i_c_rms", "p_source", "p_diodes",
