@@ -83,13 +83,14 @@ def _check_neg(c: Check) -> Check:
                                ref=REF_MAP.get(c.ref, c.ref))
 
 
-def run_split(loaded: LoadedSpec, library, samples: int | None, run_rails, rail_values
+def run_split(loaded: LoadedSpec, library, samples: int | None, run_rails, rails_values
               ) -> Design:
     """Both rails of a split supply, sized and verified by ``run_rails`` (the single-rail
     pipeline, passed in so that this module does not import it; the final engine run of both
     rails is one call). Unless the file fixes the
-    transformer, ``rail_values`` first sizes each rail on its own (corners only: no Monte Carlo,
-    no switch-on run, no document) to choose the transformer both share."""
+    transformer, ``rails_values`` first sizes each rail on its own (corners only: no Monte Carlo,
+    no switch-on run, no document) to choose the transformer both share; the two rails' corner
+    runs are one engine call in each sizing pass."""
     spec = loaded.requirements
     ipos = next(i for i, o in enumerate(spec.output) if o.polarity == "positive")
     ineg = 1 - ipos
@@ -97,9 +98,8 @@ def run_split(loaded: LoadedSpec, library, samples: int | None, run_rails, rail_
     if fixed:
         shared = spec.transformer
     else:
-        shared = _shared_transformer(spec, rail_values(loaded, _rail_spec(spec, ipos), library),
-                                     rail_values(loaded, _rail_spec(spec, ineg), library),
-                                     library)
+        alone = rails_values(loaded, [_rail_spec(spec, ipos), _rail_spec(spec, ineg)], library)
+        shared = _shared_transformer(spec, *alone, library)
     # A transformer docgen chose for both rails is passed to each rail as a sized one, never
     # as if the file had named it.
     note = "" if fixed else ("chosen for both rails: the larger half-winding voltage, the "
