@@ -39,4 +39,5 @@ from .circuit import Circuit, concat_circuits
 from .inrush import SwitchOn, switch_on
 from .steady import STATUS_TEXT, SteadyState, simulate
 
-__all__ = ["Circuit", "concat_circuits", "STATUS_TEXT", "SteadyState", "SwitchOn", "simulate", "switch_on"]
+__all__ = ["Circuit", "concat_circuits", "STATUS_TEXT", "SteadyState", "SwitchOn", "simulate",
+           "switch_on"]
