@@ -40,7 +40,7 @@ from .topology import topology
 from .trace import Ledger, TraceError
 from .undefined import undefined_text
 from .verify.checks import overall_status
-from .verify.corners import analyse, corner_rows
+from .verify.corners import analyse_together, corner_rows
 from .verify.evaluate import engine_checks, protection_checks
 from .verify.montecarlo import histogram_samples, summarise
 from .verify.refine import raise_floors
@@ -128,30 +128,86 @@ def run(loaded: LoadedSpec, *, samples: int | None = None) -> Design:
     if loaded.requirements.rectifier.topology == "split":
         from .rails import run_split
 
-        return run_split(loaded, library, samples, run_rail)
+        return run_split(loaded, library, samples, run_rails, rails_values)
     return run_rail(loaded, loaded.requirements, library, samples)
+
+
+def _settle(loaded: LoadedSpec, specs: list[Requirements], library, shared: str) -> list:
+    """Size and verify at the corners until no floor is raised, for each rail of ``specs``:
+    (ctx, ledger, corners, kind) per rail. The rails' corner runs of each pass go through the
+    engine in one call."""
+    steps = [_settle_steps(loaded, spec, library, shared) for spec in specs]
+    done: list = [None] * len(steps)
+    pending = {k: next(step) for k, step in enumerate(steps)}
+    while pending:
+        found = _guarded(partial(analyse_together, list(pending.values())))
+        waiting, pending = pending, {}
+        for k, cr in zip(waiting, found, strict=True):
+            try:
+                pending[k] = steps[k].send(cr)
+            except StopIteration as end:
+                done[k] = end.value
+    return done
+
+
+def _settle_steps(loaded: LoadedSpec, spec: Requirements, library, shared: str):
+    """One rail's sizing passes; yields each pass's corner job, receives its CornerResult."""
+    ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=library,
+                        shared_transformer=shared)
+    reg = regulator(spec.output[0].regulator)
+    for _ in range(MAX_PASSES):
+        ctx.picks.clear()
+        ctx.conflicts.clear()
+        L = _guarded(partial(_size, ctx, reg))
+        cr = yield _job(spec, L, reg, samples=0, surge=False)
+        if not raise_floors(ctx, L, cr, reg):
+            break
+    return ctx, L, cr, reg
+
+
+def _job(spec: Requirements, L: Ledger, reg, *, samples: int, surge: bool = True) -> dict:
+    """The arguments of verify.corners.analyse for one rail."""
+    env = spec.environment
+    return dict(L=L, topology=spec.rectifier.topology, seed=spec.analysis.seed,
+                t_min=env.ambient_min, t_max=env.ambient_max, reg=reg, samples=samples,
+                surge=surge)
+
+
+def rails_values(loaded: LoadedSpec, specs: list[Requirements], library) -> list[dict]:
+    """The settled sizing and worst-corner engine figures of each rail, without the Monte Carlo
+    run, the switch-on surge or the document: what a split supply needs to choose the
+    transformer both rails share."""
+    out = []
+    for ctx, L, cr, reg in _settle(loaded, specs, library, ""):
+        engine_checks(ctx, L, cr, reg)
+        out.append(dict(L.values))
+    return out
 
 
 def run_rail(loaded: LoadedSpec, spec: Requirements, library, samples: int | None, *,
              shared: str = "") -> Design:
     """One rail: a single output fed by its own rectifier and reservoir. ``shared`` says why
     the transformer in ``spec`` was chosen for both rails of a split supply (empty otherwise)."""
-    ctx = SizingContext(spec=spec, spec_path=str(loaded.path), library=library,
-                        shared_transformer=shared)
-    n_samples = spec.analysis.samples if samples is None else samples
-    env = spec.environment
-    reg = regulator(spec.output[0].regulator)
-    verify = partial(analyse, topology=spec.rectifier.topology, seed=spec.analysis.seed,
-                     t_min=env.ambient_min, t_max=env.ambient_max, reg=reg)
-    for _ in range(MAX_PASSES):
-        ctx.picks.clear()
-        ctx.conflicts.clear()
-        L = _guarded(partial(_size, ctx, reg))
-        cr = _guarded(partial(verify, L, samples=0, surge=False))
-        if not raise_floors(ctx, L, cr, reg):
-            break
-    # Final run with the Monte Carlo samples and the switch-on surge on the settled design.
-    cr = _guarded(partial(verify, L, samples=n_samples))
+    return run_rails(loaded, [spec], library, samples, shared=shared)[0]
+
+
+def run_rails(loaded: LoadedSpec, specs: list[Requirements], library, samples: int | None, *,
+              shared: str = "") -> list[Design]:
+    """Rails of one file (each a single output, see run_rail), each sized on its own; each
+    engine run (every sizing pass's corners, the final corners and Monte Carlo samples) of all
+    of them is one call."""
+    settled = _settle(loaded, specs, library, shared)
+    jobs = [_job(spec, L, reg, samples=spec.analysis.samples if samples is None else samples)
+            for spec, (_, L, _, reg) in zip(specs, settled, strict=True)]
+    # Final run with the Monte Carlo samples and the switch-on surge on the settled designs.
+    results = _guarded(partial(analyse_together, jobs))
+    return [_document(loaded, spec, ctx, L, cr, reg)
+            for spec, (ctx, L, _, reg), cr in zip(specs, settled, results, strict=True)]
+
+
+def _document(loaded: LoadedSpec, spec: Requirements, ctx: SizingContext, L: Ledger, cr,
+              reg) -> Design:
+    """Checks, cautions, parts and texts of one settled, verified rail."""
     checks = engine_checks(ctx, L, cr, reg)
     checks += _guarded(partial(protection_checks, ctx, L, cr))
     checks.sort(key=lambda c: ALL_CHECK_IDS.index(c.id) if c.id in ALL_CHECK_IDS else 100)

@@ -49,19 +49,18 @@ def _rail_spec(spec: Requirements, index: int, transformer=None) -> Requirements
     return spec.model_copy(update=update)
 
 
-def _shared_transformer(spec: Requirements, a: Design, b: Design, library):
-    """A transformer both rails can share: the larger half voltage, the combined current."""
+def _shared_transformer(spec: Requirements, a: dict, b: dict, library):
+    """A transformer both rails can share: the larger half voltage, the combined current.
+    ``a`` and ``b``: the values of each rail sized on its own."""
     t = spec.transformer
-    if t.part or t.secondary is not None:
-        return t
     band = spec.margins.warn_band
-    v = max(a.values["transformer.v_rated"].value, b.values["transformer.v_rated"].value)
-    i_tot = math.hypot(a.values["engine.transformer_current"].value,
-                       b.values["engine.transformer_current"].value)
+    v = max(a["transformer.v_rated"].value, b["transformer.v_rated"].value)
+    i_tot = math.hypot(a["engine.transformer_current"].value,
+                       b["engine.transformer_current"].value)
     # VA needed at the highest ambient (derated); a standard step is divided by the default
     # derating, a library part's own derating applies in the selection
-    va_need = max(v * i_tot / (1 - band), a.values["transformer.va_allowed"].value,
-                  b.values["transformer.va_allowed"].value)
+    va_need = max(v * i_tot / (1 - band), a["transformer.va_allowed"].value,
+                  b["transformer.va_allowed"].value)
     if library is not None:
         from .parts.select import select_transformer
 
@@ -96,22 +95,29 @@ def _check_neg(c: Check) -> Check:
                                ref=REF_MAP.get(c.ref, c.ref))
 
 
-def run_split(loaded: LoadedSpec, library, samples: int | None, run_rail) -> Design:
-    """Both rails of a split supply, sized and verified by ``run_rail`` (the single-rail
-    pipeline, passed in so that this module does not import it)."""
+def run_split(loaded: LoadedSpec, library, samples: int | None, run_rails, rails_values
+              ) -> Design:
+    """Both rails of a split supply, sized and verified by ``run_rails`` (the single-rail
+    pipeline, passed in so that this module does not import it; the final engine run of both
+    rails is one call). Unless the file fixes the
+    transformer, ``rails_values`` first sizes each rail on its own (corners only: no Monte Carlo,
+    no switch-on run, no document) to choose the transformer both share; the two rails' corner
+    runs are one engine call in each sizing pass."""
     spec = loaded.requirements
     ipos = next(i for i, o in enumerate(spec.output) if o.polarity == "positive")
     ineg = 1 - ipos
-    a = run_rail(loaded, _rail_spec(spec, ipos), library, 0)
-    b = run_rail(loaded, _rail_spec(spec, ineg), library, 0)
-    shared = _shared_transformer(spec, a, b, library)
     fixed = bool(spec.transformer.part) or spec.transformer.secondary is not None
+    if fixed:
+        shared = spec.transformer
+    else:
+        alone = rails_values(loaded, [_rail_spec(spec, ipos), _rail_spec(spec, ineg)], library)
+        shared = _shared_transformer(spec, *alone, library)
     # A transformer docgen chose for both rails is passed to each rail as a sized one, never
     # as if the file had named it.
     note = "" if fixed else ("chosen for both rails: the larger half-winding voltage, the "
                              "combined current")
-    a = run_rail(loaded, _rail_spec(spec, ipos, shared), library, samples, shared=note)
-    b = run_rail(loaded, _rail_spec(spec, ineg, shared), library, samples, shared=note)
+    a, b = run_rails(loaded, [_rail_spec(spec, ipos, shared), _rail_spec(spec, ineg, shared)],
+                     library, samples, shared=note)
     return _merge(loaded, spec, a, b, library)
 
 

@@ -37,8 +37,9 @@ with a positive capacitor voltage (the load asks for more than the source gives)
 conduction. Figures are NaN unless the status is 0.
 """
 
-from .circuit import Circuit
+from .circuit import Circuit, concat_circuits
 from .inrush import SwitchOn, switch_on
 from .steady import STATUS_TEXT, SteadyState, simulate
 
-__all__ = ["Circuit", "STATUS_TEXT", "SteadyState", "SwitchOn", "simulate", "switch_on"]
+__all__ = ["Circuit", "concat_circuits", "STATUS_TEXT", "SteadyState", "SwitchOn", "simulate",
+           "switch_on"]

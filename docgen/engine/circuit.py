@@ -194,3 +194,14 @@ class Params:
         new.n = len(idx)
         new._derive()
         return new
+
+
+def concat_circuits(circuits: list[Circuit]) -> Circuit:
+    """One Circuit holding the points of several of the same topology and load law, in order
+    (so that they run in one vectorised call)."""
+    first = circuits[0]
+    if any((c.topology, c.load) != (first.topology, first.load) for c in circuits):
+        raise ValueError("only circuits of one topology and load law can be joined")
+    parts = [_broadcast(c)[0] for c in circuits]
+    joined = {name: np.concatenate([p[name] for p in parts]) for name in _NUMERIC}
+    return Circuit(topology=first.topology, load=first.load, **joined)

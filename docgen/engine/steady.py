@@ -91,6 +91,13 @@ class SteadyState:
     iterations: np.ndarray
     waveforms: dict[int, dict[str, np.ndarray]] = field(default_factory=dict)
 
+    def take(self, start: int, stop: int) -> SteadyState:
+        """Points start..stop-1 as a SteadyState of their own (waveform keys renumbered)."""
+        sub = {f.name: getattr(self, f.name)[start:stop] for f in fields(self)
+               if f.name != "waveforms"}
+        waves = {k - start: w for k, w in self.waveforms.items() if start <= k < stop}
+        return SteadyState(**sub, waveforms=waves)
+
     def point(self, k: int) -> dict[str, float]:
         """All scalar figures of operating point k."""
         out: dict[str, float] = {}

@@ -29,8 +29,13 @@ import numpy as np
 from .circuit import Params
 from .loads import Load, typical_current
 from .omega import wright_omega
+from .pointwise import integrate_points
 
 _R_MIN = 1e-12  # ohm; keeps the closed form finite for a path with no resistance at all
+# Up to this many points (the 24 corners of a three-terminal rail) a pass steps each point with
+# plain floats (pointwise.py): numpy's fixed cost per array operation would be most of the cost
+# of a step.
+POINTWISE_MAX = 24
 
 
 @dataclass
@@ -125,6 +130,12 @@ def integrate(
     variable describes both. The final signs are returned in ``PassResult.sign_end``.
     """
     nsteps = phase.shape[0] - 1
+    if p.n <= POINTWISE_MAX and not stop_after_pulse:
+        dt = np.diff(phase, axis=0) / p.omega
+        theta = np.maximum(0.5, 1.0 - fast_time_constant(p, load, dt) / dt)
+        v_c, d_vc, out_i, out_v, i_end, sign_end = integrate_points(
+            p, load, phase, v_c0, i0, theta, store, sensitivity, sign0)
+        return PassResult(v_c, d_vc, out_i, out_v, i_end, sign_end)
     vpk, c, esr, ind = p.vpk, p.c, p.esr, p.l_s
     has_l = ind > 0
     sin = np.sin(phase)
@@ -187,6 +198,8 @@ def integrate(
         d0_all = -z_all * g0 * d1_all
         rs_all = np.maximum(r2_all + d1_all * z_all, _R_MIN)
         lt_all = np.log(rs_all * (p.isat / p.mvt))
+    else:
+        pw = _Piecewise(p, load, z_all, r2_all)
     started = i > 0
     for k in range(nsteps):
         b = b_all[k]
@@ -207,7 +220,7 @@ def integrate(
                 p.isat, p.mvt, ep, a, z, d0_all[k], d1_all[k], g0, g1, rs_all[k], lt_all[k]
             )
         else:
-            s = solve_path(p, load, ep, a, z, r2_all[k] if any_l else r2_all)
+            s = pw.solve(k, ep, a, z, r2_all[k] if any_l else r2_all)
         if any_l:
             on = s.i > 0
             v_l_new = np.where(on, kl * (s.i - i) - v_l, 0.0)
@@ -240,6 +253,46 @@ def integrate(
     if store:
         res.i, res.v_p = out_i[: nsteps + 1], out_v[: nsteps + 1]
     return res
+
+
+class _Piecewise:
+    """solve_path over a whole pass with the per-step coefficients of every load segment (and
+    the breakpoints' capacitor-branch voltages) computed once, as (steps, segments, points)
+    arrays; each step then tests all breakpoints at once and gathers its segment's row."""
+
+    def __init__(self, p: Params, load: Load, z_all: np.ndarray, r2_all):
+        self.isat, self.mvt = p.isat, p.mvt
+        g0 = np.stack(load.g0)  # (S, n)
+        g1 = np.stack(load.g1)
+        vb = np.stack(load.breaks)  # (B, n)
+        z = z_all[:, None, :]  # (N, 1, n)
+        r2 = np.asarray(r2_all)
+        r2 = r2[:, None, :] if r2.ndim == 2 else r2
+        d1 = 1.0 / (1.0 + z * g1)
+        d0 = -z * g0 * d1
+        rs = np.maximum(r2 + d1 * z, _R_MIN)
+        lt = np.log(rs * self.isat / self.mvt)
+        shape = d1.shape
+        # (N, 6, S, n): one gather per step picks every coefficient of the active segment.
+        self.coef = np.stack([d0, d1, rs, lt, np.broadcast_to(g0, shape),
+                              np.broadcast_to(g1, shape)], axis=1)
+        self.vb = vb
+        self.yb = vb + z * (g0[:-1] + g1[:-1] * vb)  # (N, B, n)
+        self.cols = np.arange(p.n)
+        self.arg_min = -1.0 + 1e-15
+
+    def solve(self, k: int, ep, a, z, r2) -> Solution:
+        isat, mvt = self.isat, self.mvt
+        ib = (self.yb[k] - a) / z
+        fb = ep - r2 * ib - mvt * np.log1p(np.maximum(ib / isat, self.arg_min)) - self.vb
+        seg = ((ib <= -isat) | (fb > 0)).sum(axis=0)
+        d0, d1, r_star, lt, g0, g1 = self.coef[k][:, seg, self.cols]
+        big_a = ep - d0 - d1 * a
+        w = wright_omega((big_a + r_star * isat) / mvt + lt)
+        i = (mvt / r_star) * w - isat
+        v_p = d0 + d1 * (a + z * i)
+        i_c = i - (g0 + g1 * v_p)
+        return Solution(i, None, v_p, i_c, g1, d1, r_star, w)
 
 
 def fast_time_constant(p: Params, load: Load, dt: np.ndarray) -> np.ndarray:

@@ -3,6 +3,8 @@
 from __future__ import annotations
 
 import base64
+import re
+import secrets
 from functools import lru_cache
 from importlib import resources
 from typing import Any
@@ -65,11 +67,20 @@ def _math_tag(ctx, latex: str):
         mathml = _mathml(latex)
         if mathml is not None:
             return Markup(mathml.replace("<math ", f'<math alttext="{escape(text)}" ', 1))
+    slots = ctx.get("formula_slots")
+    if slots is not None:
+        # Typeset after rendering, in one batch, only the formulas the document shows.
+        slots["latex"].append(latex)
+        return Markup(f"{slots['mark']}{len(slots['latex']) - 1}@")
+    return _picture_tag(latex)
+
+
+def _picture_tag(latex: str) -> str:
+    from markupsafe import escape
+
     uri, w, h = formula_data_uri(latex)
-    return Markup(
-        f'<img class="math" src="{uri}" style="width: {w:.1f}pt; height: {h:.1f}pt" '
-        f'alt="{escape(text)}">'
-    )
+    return (f'<img class="math" src="{uri}" style="width: {w:.1f}pt; height: {h:.1f}pt" '
+            f'alt="{escape(filters.formula_text(latex))}">')
 
 
 def _svg_uri(svg: str) -> str:
@@ -227,19 +238,23 @@ def render_html(design: Design, plots: dict[str, str], medium: str = "screen") -
     """The report as one HTML file: ``screen`` for report.html, ``print`` for the PDF."""
     if medium not in MEDIA:
         raise ValueError(f"unknown medium {medium!r}; expected one of {MEDIA}")
-    formulas = [v.symbol for v in design.values.values()]
-    formulas += [f for v in design.values.values() for f in (v.latex, v.substituted) if f]
-    if medium == "print" or any(_mathml(f) is None for f in formulas):
-        from .mathsvg import prefetch
-
-        # Typeset the pictures up front: cached ones come from memory or disk, the rest in
-        # parallel processes, instead of one by one while the template renders.
-        prefetch(formulas)
     if medium == "print":
         plots = {name: pdf_svg(svg) for name, svg in plots.items()}
     css = environment().loader.get_source(environment(), "report.css")[0]
-    return environment().get_template("report.html.j2").render(
-        css=css, medium=medium, **context(design, plots))
+    # The template leaves a numbered mark where a formula picture goes; the pictures the
+    # document shows are then typeset in one batch (cached ones come from memory or disk, the
+    # rest in parallel processes) and put in place. The mark carries a random token, so no text
+    # of the design can be taken for one.
+    slots = {"mark": f"@formula-{secrets.token_hex(8)}-", "latex": []}
+    page = environment().get_template("report.html.j2").render(
+        css=css, medium=medium, formula_slots=slots, **context(design, plots))
+    if not slots["latex"]:
+        return page
+    from .mathsvg import prefetch
+
+    prefetch(slots["latex"])
+    tags = [_picture_tag(latex) for latex in slots["latex"]]
+    return re.sub(re.escape(slots["mark"]) + r"(\d+)@", lambda m: tags[int(m.group(1))], page)
 
 
 def pdf_svg(svg: str) -> str:

@@ -23,7 +23,7 @@ from typing import Any
 
 import numpy as np
 
-from ..engine import Circuit, simulate, switch_on
+from ..engine import Circuit, concat_circuits, simulate, switch_on
 from ..stages.diodes import engine_diode
 from ..topology import topology as topology_record
 from ..trace import Ledger
@@ -222,6 +222,32 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
             reg, surge: bool = True) -> CornerResult:
     """Simulate every corner and Monte Carlo sample of the design in one engine call, the
     switch-on surge too (unless ``surge`` is False), and add the figures derived from them."""
+    return analyse_together([dict(L=L, topology=topology, samples=samples, seed=seed,
+                                  t_min=t_min, t_max=t_max, reg=reg, surge=surge)])[0]
+
+
+def analyse_together(jobs: list[dict]) -> list[CornerResult]:
+    """``analyse`` for several designs (each job: analyse's arguments by name), with the
+    corners and samples of all of them in one engine call where their circuits have the same
+    topology and load law (the two rails of a split supply)."""
+    prepared = [_prepare(**job) for job in jobs]
+    circuits = [c for _, c in prepared]
+    if len({(c.topology, c.load) for c in circuits}) == 1 and len(circuits) > 1:
+        sizes = [c.n for c in circuits]
+        offsets = np.cumsum([0] + sizes)
+        keep = [int(o) + k for o, (prep, _) in zip(offsets, prepared, strict=False)
+                for k in (prep["nominal"], prep["trough"])]
+        whole = simulate(concat_circuits(circuits), keep_waveforms=keep)
+        results = [whole.take(int(a), int(b)) for a, b in zip(offsets[:-1], offsets[1:],
+                                                                strict=True)]
+    else:
+        results = [simulate(c, keep_waveforms=(prep["nominal"], prep["trough"]))
+                   for prep, c in prepared]
+    return [_complete(ss=ss, **prep) for (prep, _), ss in zip(prepared, results, strict=True)]
+
+
+def _prepare(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_max: float, *,
+             reg, surge: bool = True) -> tuple[dict, Circuit]:
     corners = corner_points(L, reg)
     mc = sample_points(L, samples, seed, t_min, t_max, reg) if samples > 0 else None
     pts = _concat(corners, mc)
@@ -231,7 +257,13 @@ def analyse(L: Ledger, topology: str, samples: int, seed: int, t_min: float, t_m
     trough = max((k for k, n in enumerate(corners.name) if n.startswith("low line, full load, C -")),
                  key=lambda k: (corners.v_z[k], corners.r[k], -corners.t_d[k], -corners.freq[k]))
     circuit = _circuit(L, pts, topology, reg)
-    ss = simulate(circuit, keep_waveforms=(nominal, trough))
+    prep = dict(L=L, topology=topology, reg=reg, surge=surge, corners=corners, mc=mc, pts=pts,
+                nominal=nominal, trough=trough, circuit=circuit)
+    return prep, circuit
+
+
+def _complete(L: Ledger, topology: str, reg, surge: bool, corners: PointSet, mc, pts: PointSet,
+              nominal: int, trough: int, circuit: Circuit, ss) -> CornerResult:
     metrics = design_metrics(L, pts, {name: getattr(ss, name) for name in STEADY_FIGURES},
                              topology, reg)
     if "output.hold_up" in L:

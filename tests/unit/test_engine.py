@@ -227,6 +227,62 @@ def test_vectorised_equals_per_point():
             assert vec.point(k)[key] == pytest.approx(val, rel=1e-9, nan_ok=True), key
 
 
+@pytest.mark.parametrize("topology,load", [("bridge", "zener"), ("center-tap", "regulator"),
+                                           ("half-wave", "resistor"), ("bridge", "current")])
+def test_array_stepper_and_point_by_point_stepper_agree(topology, load, monkeypatch):
+    # A pass over a few points steps each with plain floats (engine/pointwise.py), a larger one
+    # works on arrays (engine/stepper.py); both implement the same steps, so every figure, the
+    # switch-on transient included, must agree to rounding (internal consistency; the solve_ivp
+    # comparisons of tests/reference hold the engine itself to an independent integration).
+    import docgen.engine.stepper as stepper
+
+    n = 5
+    kw = dict(topology=topology, v_rms=np.linspace(11.0, 13.0, n), freq=50.0,
+              r_s=np.linspace(0.2, 1.0, n), l_s=np.array([0.0, 1e-3, 0.0, 3e-3, 0.5e-3]),
+              c=np.linspace(2200e-6, 4700e-6, n), esr=0.03, load=load)
+    kw.update({"zener": dict(r_series=15.0, v_z0=9.0, r_z=2.0, i_out=np.linspace(0, 0.2, n)),
+               "regulator": dict(i_load=0.4, i_q=0.005, v_dropout_min=np.linspace(0, 14.0, n)),
+               "resistor": dict(r_load=np.linspace(20.0, 60.0, n)),
+               "current": dict(i_load=np.linspace(0.0, 0.8, n))}[load])
+    circuit = Circuit(**kw)
+    figures = {}
+    for limit in (0, n):
+        monkeypatch.setattr(stepper, "POINTWISE_MAX", limit)
+        ss = simulate(circuit, keep_waveforms=[1])
+        so = switch_on(circuit, steps_per_period=1000, max_cycles=2.0)
+        figures[limit] = (ss, so)
+    (ss_a, so_a), (ss_p, so_p) = figures[0], figures[n]
+    assert ss_a.converged.all() and ss_p.converged.all()
+    for k in range(n):
+        for key, val in ss_a.point(k).items():
+            assert ss_p.point(k)[key] == pytest.approx(val, rel=1e-9, abs=1e-12, nan_ok=True), key
+    np.testing.assert_allclose(ss_p.waveforms[1]["i_d"], ss_a.waveforms[1]["i_d"], rtol=1e-9,
+                               atol=1e-12)
+    for key in ("i_peak", "i2t", "first_i2t", "duration"):
+        np.testing.assert_allclose(getattr(so_p, key), getattr(so_a, key), rtol=1e-9)
+
+
+def test_joined_circuits_give_each_circuit_its_own_figures():
+    from docgen.engine import concat_circuits
+
+    a = Circuit("center-tap", 15.0, 50.0, 0.5, 1e-3, np.array([2200e-6, 3300e-6]), 0.04,
+                load="regulator", i_load=0.5, i_q=0.005, v_dropout_min=17.0)
+    b = Circuit("center-tap", np.array([14.0, 15.0, 16.0]), 50.0, 0.7, 0.0, 2200e-6, 0.05,
+                load="regulator", i_load=0.3, i_q=0.005, v_dropout_min=16.0)
+    both = simulate(concat_circuits([a, b]), keep_waveforms=[1, 3])
+    for circuit, start, kept in ((a, 0, 1), (b, 2, 1)):
+        alone = simulate(circuit, keep_waveforms=[kept])
+        part = both.take(start, start + circuit.n)
+        for k in range(circuit.n):
+            for key, val in alone.point(k).items():
+                if key == "iterations":
+                    continue
+                assert part.point(k)[key] == pytest.approx(val, rel=1e-9, nan_ok=True), key
+        assert set(part.waveforms) == {kept}
+    with pytest.raises(ValueError, match="one topology and load law"):
+        concat_circuits([a, Circuit("bridge", 12.0, 50.0, 0.5, 0.0, 1e-3, 0.03)])
+
+
 def test_converged_flag_and_nan_for_failures():
     # Point 0 is ordinary; point 1 asks for more current than the source can give at any
     # positive capacitor voltage (12 V, 20 ohm source: under 0.6 A); point 2 is ordinary.

@@ -7,6 +7,7 @@ import stat
 from pathlib import Path
 
 import pytest
+from markupsafe import escape
 
 from docgen import cache
 from docgen.render import mathsvg
@@ -208,3 +209,27 @@ def test_report_html_is_byte_identical_with_and_without_the_cache(cache_dir, mon
         mathsvg.clear_memory()
         assert render_html(design, {}, medium="print") == without
     assert _entries(cache_dir)
+
+
+def test_only_the_formulas_the_document_shows_are_typeset(cache_dir, monkeypatch):
+    # The print HTML asks the typesetter for the pictures its template places, all in one
+    # batch, and for nothing else: every formula asked for appears in the page (as the
+    # picture's alternative text), and every picture of the page was asked for.
+    from docgen.build import design_for
+    from docgen.render import filters
+    from docgen.render import html as html_mod
+
+    spec = Path(__file__).resolve().parents[2] / "specs" / "hydroponic-sensor-hub.toml"
+    design = design_for(spec)
+    asked: list[list[str]] = []
+    real = mathsvg.prefetch
+    monkeypatch.setattr(mathsvg, "prefetch", lambda f: asked.append(list(f)) or real(f))
+    page = html_mod.render_html(design, {}, medium="print")
+    assert len(asked) == 1
+    shown = set(asked[0])
+    traced = {v.symbol for v in design.values.values()}
+    assert shown < traced | {f for v in design.values.values() for f in (v.latex, v.substituted)}
+    assert page.count('<img class="math"') == len(asked[0])
+    for latex in shown:
+        assert f'alt="{escape(filters.formula_text(latex))}"' in page
+    assert "@formula-" not in page
