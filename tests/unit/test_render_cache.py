@@ -215,7 +215,7 @@ def test_only_the_formulas_the_document_shows_are_typeset(cache_dir, monkeypatch
     # The print HTML asks the typesetter for the pictures its template places, all in one
     # batch, and for nothing else: every formula asked for appears in the page (as the
     # picture's alternative text), and every picture of the page was asked for.
-    from docgen.build import design_for
+    from docgen.jobs.build import design_for
     from docgen.render import filters
     from docgen.render import html as html_mod
 
