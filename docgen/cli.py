@@ -120,6 +120,8 @@ def _parser() -> argparse.ArgumentParser:
     b.add_argument("-o", "--out", type=Path, default=Path("out"),
                    help="output folder (default: ./out)")
     b.add_argument("--no-pdf", action="store_true", help="write HTML and results.json only")
+    b.add_argument("--body-only", action="store_true",
+                   help="leave the appendices out of the PDF (report.html keeps everything)")
     b.add_argument("--strict", action="store_true", help="treat warnings as failures")
     b.add_argument("--force", action="store_true",
                    help="rebuild even when the outputs are up to date")
@@ -341,6 +343,13 @@ def _cmd_build(args) -> int:
     return _build_batch(specs, args)
 
 
+def _pdf_option(args) -> bool | str:
+    """True (whole PDF), "body" (--body-only) or False (--no-pdf)."""
+    if args.no_pdf:
+        return False
+    return "body" if args.body_only else True
+
+
 def _build_single(path: Path, args) -> int:
     from .errors import DocgenError
     from .incremental import build_incremental
@@ -348,7 +357,7 @@ def _build_single(path: Path, args) -> int:
 
     try:
         with reporting(_reporter(args, str(path))):
-            outcome = build_incremental(path, args.out, pdf=not args.no_pdf, force=args.force)
+            outcome = build_incremental(path, args.out, pdf=_pdf_option(args), force=args.force)
     except DocgenError as exc:
         if args.format != "json":
             raise
@@ -389,7 +398,7 @@ def _build_batch(specs: list[Path], args) -> int:
     from .incremental import check_up_to_date
 
     stale = [spec for spec in specs
-             if args.force or check_up_to_date(spec, args.out, pdf=not args.no_pdf)[0] is None]
+             if args.force or check_up_to_date(spec, args.out, pdf=_pdf_option(args))[0] is None]
     invalid = {}
     for label, _, error in _load_all(stale):
         if error is not None:
@@ -398,7 +407,7 @@ def _build_batch(specs: list[Path], args) -> int:
                 progress(invalid[label])
     valid = [spec for spec in specs if str(spec) not in invalid]
     try:
-        built = run_batch(valid, args.out, pdf=not args.no_pdf, force=args.force,
+        built = run_batch(valid, args.out, pdf=_pdf_option(args), force=args.force,
                           jobs=args.jobs, on_done=progress)
     finally:
         if progress is not None:

@@ -15,6 +15,10 @@ from . import filters
 from .bom import bom_rows
 from .mathsvg import formula_data_uri
 from .netlist import netlist
+from .derivation import chains, trace_matrix
+from .review import check_table, decisions, is_split, open_points, rail_names, stress_table
+from .signoff import revision_history, signoff_rows
+from .sources import Citations, basis_word
 
 
 @lru_cache(maxsize=1)
@@ -133,7 +137,21 @@ MC_QUANTITIES = {
 }
 
 
-def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
+def _citations(design: Design) -> tuple[Citations, dict[str, Any]]:
+    """References numbered by first use: the body's cautions and assumptions, then the
+    derivations and the equation catalogue of the appendices."""
+    cite = Citations()
+    cited = {
+        "cautions": {c.id: cite.cite(c.source) for c in design.cautions},
+        "assumptions": {a.id: cite.cite(a.source) for a in design.assumptions},
+    }
+    cited["chains"] = chains(design, cite)
+    cited["equations"] = {e.id: {"refs": cite.cite(e.source), "basis": basis_word(e.source)}
+                          for e in design.equations.values()}
+    return cite, cited
+
+
+def context(design: Design, plots: dict[str, str], body_only: bool = False) -> dict[str, Any]:
     spec = design.requirements
     values: list[TracedValue] = list(design.values.values())
     by_stage: dict[str, list[dict[str, Any]]] = {}
@@ -158,7 +176,23 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
                "zener.r", "zener.p_rating", "engine.output_ripple", "engine.zener_power",
                "engine.resistor_power", "engine.transformer_current", "engine.va_nominal",
                "engine.efficiency", "reservoir.life"]
+    cite, cited = _citations(design)
+    trace_rows = traceability(design)
     return {
+        "body_only": body_only,
+        "split": is_split(design),
+        "rails": rail_names(design),
+        "document": spec.document,
+        "signoff": signoff_rows(spec),
+        "history": revision_history(spec, design.spec_path),
+        "stress_rows": stress_table(design),
+        "check_rows": check_table(design),
+        "decisions": decisions(design),
+        "open_points": open_points(design),
+        "chains": cited["chains"],
+        "cited": cited,
+        "references": cite.entries(),
+        "trace_matrix": trace_matrix(design, trace_rows),
         "d": design,
         "spec": spec,
         "project": spec.project,
@@ -174,7 +208,7 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
         "assumptions": design.assumptions,
         "sources": sources,
         "equations": sorted(design.equations.values(), key=lambda e: e.id),
-        "trace_rows": traceability(design),
+        "trace_rows": trace_rows,
         "figures": [
             {"src": _svg_uri(plots[name]), "caption": caption, "section": section}
             for name, (section, caption) in FIGURES.items() if name in plots
@@ -192,12 +226,14 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
     }
 
 
-def render_html(design: Design, plots: dict[str, str], medium: str = "screen") -> str:
-    """The report as one HTML file: ``screen`` for report.html, ``print`` for the PDF."""
+def render_html(design: Design, plots: dict[str, str], medium: str = "screen",
+                body_only: bool = False) -> str:
+    """The report as one HTML file: ``screen`` for report.html, ``print`` for the PDF.
+    ``body_only`` leaves the appendices out (the PDF of ``--body-only``)."""
     if medium not in MEDIA:
         raise ValueError(f"unknown medium {medium!r}; expected one of {MEDIA}")
     formulas = [v.symbol for v in design.values.values()]
-    formulas += [f for v in design.values.values() for f in (v.latex, v.substituted) if f]
+    formulas += [v.latex for v in design.values.values() if v.latex]
     if medium == "print" or any(_mathml(f) is None for f in formulas):
         from .mathsvg import prefetch
 
@@ -208,7 +244,7 @@ def render_html(design: Design, plots: dict[str, str], medium: str = "screen") -
         plots = {name: pdf_svg(svg) for name, svg in plots.items()}
     css = environment().loader.get_source(environment(), "report.css")[0]
     return environment().get_template("report.html.j2").render(
-        css=css, medium=medium, **context(design, plots))
+        css=css, medium=medium, **context(design, plots, body_only=body_only))
 
 
 def pdf_svg(svg: str) -> str:
