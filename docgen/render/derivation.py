@@ -38,7 +38,7 @@ def _origin(design: Design, v: TracedValue, stage_titles: dict[str, str]) -> str
     if v.equation == "given":
         return v.source or "requirements file"
     if v.equation == "default":
-        return "default" + (f" ({v.source})" if v.source and v.source != "default" else "")
+        return "default" + (f": {v.source}" if v.source and v.source != "default" else "")
     return "step of " + stage_titles.get(v.stage, v.stage)
 
 
@@ -78,6 +78,8 @@ def chains(design: Design, cite: Citations) -> list[dict[str, Any]]:
             # an engine figure is simulated from the whole circuit: its inputs are not listed
             for i in () if engine else v.inputs:
                 src = design.values[_resolve(design, i)]
+                if split and src.id.startswith(NEG) and src.id[len(NEG):] in design.values:
+                    src = design.values[src.id[len(NEG):]]  # listed with its rail twin
                 if src.stage != stage.id:
                     legend.setdefault(src.id, src)
             eq = design.equations.get(v.equation)
