@@ -333,7 +333,8 @@ def out_dir_for(spec: Path, out_root: Path) -> Path:
     return out_root / safe_stem(spec)
 
 
-def check_up_to_date(spec: Path, out_root: Path, *, pdf: bool | str) -> tuple[Outcome | None, list[str]]:
+def check_up_to_date(spec: Path, out_root: Path, *, pdf: bool | str
+                     ) -> tuple[Outcome | None, list[str]]:
     """(Outcome for a skip, []) when the spec's outputs are current, else (None, reasons)."""
     start = time.perf_counter()
     out_dir = out_dir_for(spec, out_root)

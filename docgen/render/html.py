@@ -13,9 +13,9 @@ from ..design import Design
 from ..trace import TracedValue
 from . import filters
 from .bom import bom_rows
+from .derivation import chains, trace_matrix
 from .mathsvg import formula_data_uri
 from .netlist import netlist
-from .derivation import chains, trace_matrix
 from .review import check_table, decisions, is_split, open_points, rail_names, stress_table
 from .signoff import revision_history, signoff_rows
 from .sources import Citations, basis_word

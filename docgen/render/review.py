@@ -11,7 +11,7 @@ from __future__ import annotations
 from typing import Any
 
 from ..design import Check, Design
-from ..rails import NEG, REF_MAP
+from ..rails import NEG
 
 RAIL_PREFIXES = ("(+ rail) ", "(- rail) ")
 # Equations that turn a rating into the allowed stress: (rating, derating factor).
@@ -103,7 +103,6 @@ def decisions(design: Design) -> dict[str, Any]:
     raised = [a for a in design.assumptions if ".raised." in "." + a.id]
     conflicts = [a for a in design.assumptions if a.id.startswith("assume.conflict.")]
     return {"chosen": chosen, "raised": raised, "conflicts": conflicts,
-            "regulator": design.requirements.output[0].regulator,
             "topology": design.requirements.rectifier.topology}
 
 
@@ -149,7 +148,3 @@ def open_points(design: Design) -> list[dict[str, Any]]:
             seen.add(text)
             points.append({"kind": "not covered", "text": text})
     return points
-
-
-def neg_ref(ref: str) -> str:
-    return REF_MAP.get(ref, ref)

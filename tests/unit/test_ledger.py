@@ -65,8 +65,8 @@ def test_every_id_is_written_before_it_is_read(spec):
 
 def _report_templates() -> str:
     """The report's template and the section files it includes."""
-    return "\n".join(p.read_text(encoding="utf-8") for p in sorted((ROOT / "templates").glob("*.j2"))
-                     if p.name != "diff.html.j2")
+    files = sorted((ROOT / "templates").glob("*.j2"))
+    return "\n".join(p.read_text(encoding="utf-8") for p in files if p.name != "diff.html.j2")
 
 
 def _template_ids() -> set[str]:
