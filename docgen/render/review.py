@@ -135,7 +135,8 @@ def open_points(design: Design) -> list[dict[str, Any]]:
         if summary and summary.get("yield", 1.0) < 1.0:
             points.append({"kind": "yield", "rail": label, "yield": summary["yield"],
                            "samples": summary.get("samples", 0),
-                           "failing": summary.get("failing", {})})
+                           "failing": {k: n for k, n in summary.get("failing", {}).items()
+                                       if n}})
     seen: set[str] = set()
     for a in design.assumptions:
         text = a.text if a.id.startswith("assume.not_covered") else _not_covered(a.text)
