@@ -9,6 +9,9 @@ median wall time over ``--runs`` fresh processes of
 * a no-change rebuild ``docgen build SPEC`` right after a build (it should find the outputs up
   to date);
 * the peak memory (maximum resident set size) of a full build;
+* the pages of the PDF: the body (before appendix A) and the whole, against the page budget of
+  the review package (body <= 12 pages for one rail, <= 16 for a split supply; the whole at most
+  half the pages of the layout before it), and the ratio full build / check (target <= 5);
 * in one instrumented in-process build (a fresh interpreter that wraps a few functions, the code
   is not edited): the time spent inside WeasyPrint (HTML parsing, layout, drawing and PDF
   writing) against everything else (imports, sizing, engine, corners, Monte Carlo, plots,
@@ -46,7 +49,28 @@ TARGETS = {
     "rebuild": ("<", 0.5, "s"),
     "peak": ("<", 500.0, "MiB"),
     "share": ("<=", 40.0, "%"),
+    "ratio": ("<=", 5.0, "x"),
 }
+
+# Pages of each demo's PDF in the layout before the review package (every section in the body,
+# worksheet-style calculations), measured on 2026-12-02: the whole PDF should be at most half.
+PAGES_BEFORE = {"audio-preamp-split-15v": 81, "bench-psu-12v-follower": 70,
+                "hydroponic-sensor-hub": 56, "lab-reference-adjustable": 50,
+                "meter-backup-halfwave": 66, "us-controller-5v-120v": 54}
+BODY_PAGES = {"single": 12, "split": 16}
+APPENDIX_MARK = "Appendix A. Derivations"
+
+
+def pdf_pages(pdf: Path) -> tuple[int, int] | None:
+    """(body pages, total pages): the body ends before the page that opens appendix A."""
+    try:
+        import pypdf
+    except ImportError:
+        return None
+    pages = pypdf.PdfReader(pdf).pages
+    body = next((i for i, page in enumerate(pages) if APPENDIX_MARK in (page.extract_text() or "")),
+                len(pages))
+    return body, len(pages)
 
 
 # --------------------------------------------------------------------------- child processes
@@ -181,8 +205,8 @@ def bench_spec(spec: Path, runs: int, base_env: dict[str, str], work: Path) -> N
 
     t, _, _, _ = median_of(runs, docgen + ["--help"], env_warm)
     line("docgen --help", t, "s", "help")
-    t, _, codes, _ = median_of(runs, docgen + ["check", str(spec)], env_warm)
-    line("docgen check", t, "s", "check", f"(exit {codes[0]})")
+    t_check, _, codes, _ = median_of(runs, docgen + ["check", str(spec)], env_warm)
+    line("docgen check", t_check, "s", "check", f"(exit {codes[0]})")
 
     html_cmd = docgen + ["build", str(spec), "--no-pdf", "--force", "-o", str(out)]
     full_cmd = docgen + ["build", str(spec), "--force", "-o", str(out)]
@@ -201,6 +225,24 @@ def bench_spec(spec: Path, runs: int, base_env: dict[str, str], work: Path) -> N
     if pdf.exists() and html.exists():
         print(f"  {'':42} report.html {html.stat().st_size / 1024:.0f} KiB, "
               f"report.pdf {pdf.stat().st_size / 1024:.0f} KiB")
+    if t_check > 0:
+        line("ratio full build (warm) / check", t_full / t_check, "x", "ratio")
+    pages = pdf_pages(pdf) if pdf.exists() else None
+    if pages is not None:
+        body, total = pages
+        import tomllib
+
+        raw = tomllib.loads(spec.read_text(encoding="utf-8"))
+        split = raw.get("rectifier", {}).get("topology") == "split"
+        budget = BODY_PAGES["split" if split else "single"]
+        print(f"  {'pages: body / whole PDF':<42} {body:5d} / {total:<4d}   body target <= "
+              f"{budget} {'met' if body <= budget else 'MISSED'}", end="")
+        before = PAGES_BEFORE.get(spec.stem, 0)
+        if before:
+            print(f"; whole target <= {before // 2} (half of {before}) "
+                  f"{'met' if total <= before / 2 else 'MISSED'}")
+        else:
+            print()
 
     rebuild_cmd = docgen + ["build", str(spec), "-o", str(out)]
     t, _, codes, text = median_of(runs, rebuild_cmd, env_warm)

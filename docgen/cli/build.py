@@ -26,6 +26,13 @@ def run_build(args) -> int:
     return _build_batch(specs, args)
 
 
+def pdf_option(args) -> bool | str:
+    """True (whole PDF), "body" (--body-only) or False (--no-pdf)."""
+    if args.no_pdf:
+        return False
+    return "body" if args.body_only else True
+
+
 def _build_single(path: Path, args) -> int:
     from ..errors import DocgenError
     from ..jobs.incremental import build_incremental
@@ -33,7 +40,7 @@ def _build_single(path: Path, args) -> int:
 
     try:
         with reporting(reporter(args, str(path))):
-            outcome = build_incremental(path, args.out, pdf=not args.no_pdf, force=args.force)
+            outcome = build_incremental(path, args.out, pdf=pdf_option(args), force=args.force)
     except DocgenError as exc:
         if args.format != "json":
             raise
@@ -74,7 +81,7 @@ def _build_batch(specs: list[Path], args) -> int:
     from ..jobs.incremental import check_up_to_date
 
     stale = [spec for spec in specs
-             if args.force or check_up_to_date(spec, args.out, pdf=not args.no_pdf)[0] is None]
+             if args.force or check_up_to_date(spec, args.out, pdf=pdf_option(args))[0] is None]
     invalid = {}
     for label, _, error in load_all(stale):
         if error is not None:
@@ -83,7 +90,7 @@ def _build_batch(specs: list[Path], args) -> int:
                 progress(invalid[label])
     valid = [spec for spec in specs if str(spec) not in invalid]
     try:
-        built = run_batch(valid, args.out, pdf=not args.no_pdf, force=args.force,
+        built = run_batch(valid, args.out, pdf=pdf_option(args), force=args.force,
                           jobs=args.jobs, on_done=progress)
     finally:
         if progress is not None:

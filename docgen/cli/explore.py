@@ -184,13 +184,14 @@ def build_best(specs: list[Path], args) -> int:
     from ..jobs.build import build_one
     from ..jobs.incremental import invalidate_stamp, out_dir_for
     from ..progress import reporting
+    from .build import pdf_option
 
     worst = 0
     for path in specs:
         # the outputs will not be the greedy build's: a later plain build must rebuild
         invalidate_stamp(out_dir_for(path, args.out))
         with reporting(_reporter(args)):
-            result = build_one(path, args.out, pdf=not args.no_pdf, design=best_design)
+            result = build_one(path, args.out, pdf=pdf_option(args), design=best_design)
         status = result.status
         worst = max(worst, 1 if status in ("fail", "infeasible") or
                     (status == "warn" and args.strict) else 0)

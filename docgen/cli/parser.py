@@ -61,6 +61,8 @@ def build_parser() -> argparse.ArgumentParser:
     b.add_argument("-o", "--out", type=Path, default=Path("out"),
                    help="output folder (default: ./out)")
     b.add_argument("--no-pdf", action="store_true", help="write HTML and results.json only")
+    b.add_argument("--body-only", action="store_true",
+                   help="leave the appendices out of the PDF (report.html keeps everything)")
     b.add_argument("--strict", action="store_true", help="treat warnings as failures")
     b.add_argument("--force", action="store_true",
                    help="rebuild even when the outputs are up to date")

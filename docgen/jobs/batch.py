@@ -49,7 +49,8 @@ def _error_outcome(spec: Path, out_root: Path, message: str, code: int) -> Outco
                    status="error", reason=message, exit_code=code)
 
 
-def build_worker(spec: Path, out_root: Path, pdf: bool, force: bool, why: list[str]) -> Outcome:
+def build_worker(spec: Path, out_root: Path, pdf: bool | str, force: bool,
+                 why: list[str]) -> Outcome:
     """Build one stale spec (runs in a worker process); errors come back as an Outcome."""
     try:
         return build_incremental(spec, out_root, pdf=pdf, force=force, why=why)
@@ -72,7 +73,7 @@ def run_batch(
     specs: list[Path],
     out_root: Path,
     *,
-    pdf: bool = True,
+    pdf: bool | str = True,
     force: bool = False,
     jobs: int | None = None,
     on_done: Callable[[Outcome], None] | None = None,

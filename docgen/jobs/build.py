@@ -36,11 +36,13 @@ def design_for(spec_path: Path) -> Design:
     return run(load_requirements(spec_path))
 
 
-def build_one(spec_path: Path, out_root: Path, *, pdf: bool = True,
+def build_one(spec_path: Path, out_root: Path, *, pdf: bool | str = True,
               design: Callable[[LoadedSpec], Design] = run) -> BuildResult:
     """Build one spec into OUT/<stem>/ while holding the folder's lock; afterwards the folder
     holds this build's outputs only (stale ones of an earlier build are removed and named).
-    ``design`` makes the Design (the pipeline; docgen.explore gives the search's best)."""
+    ``pdf``: True for the whole document, "body" for the body without its appendices (the
+    HTML always has everything), False for no PDF. ``design`` makes the Design (the pipeline;
+    docgen.explore gives the search's best)."""
     with stage("reading the requirements"):
         loaded = load_requirements(spec_path)
     out_dir = out_root / safe_stem(spec_path)
@@ -60,7 +62,7 @@ def _previous_outputs(out_dir: Path) -> list[str]:
     return list(outputs) if isinstance(outputs, dict) else []
 
 
-def _build_into(loaded, spec_path: Path, out_dir: Path, pdf: bool,
+def _build_into(loaded, spec_path: Path, out_dir: Path, pdf: bool | str,
                 make: Callable[[LoadedSpec], Design] = run) -> BuildResult:
     try:
         with stage("sizing, corners and Monte Carlo"):
@@ -100,7 +102,7 @@ def _build_into(loaded, spec_path: Path, out_dir: Path, pdf: bool,
 
         with stage("PDF (WeasyPrint layout and drawing)"):
             pdf_bytes = render_pdf(
-                render_html(design, plots, medium="print"),
+                render_html(design, plots, medium="print", body_only=pdf == "body"),
                 {spec_path.name: design.spec_text.encode("utf-8"),
                  "results.json": results.encode("utf-8")},
                 title=design.requirements.project.title,

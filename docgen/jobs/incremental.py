@@ -160,7 +160,10 @@ class Inputs:
         return hashlib.sha256(text.encode("utf-8")).hexdigest()
 
 
-def current_inputs(spec: Path, *, pdf: bool) -> Inputs:
+BODY_ONLY = "body"  # the pdf option of --body-only: the PDF without its appendices
+
+
+def current_inputs(spec: Path, *, pdf: bool | str) -> Inputs:
     from ..errors import SpecError
     from ..textfile import SPEC_MAX_BYTES, read_bounded
 
@@ -173,7 +176,9 @@ def current_inputs(spec: Path, *, pdf: bool) -> Inputs:
         for role, path in extra_inputs(spec, data):
             files.append({"role": role, "path": str(path), "sha256": _sha256_file(path)})
     digest = hashlib.sha256(data).hexdigest() if data is not None else None
-    return Inputs(spec, digest, files, {"pdf": bool(pdf)}, tool_inputs())
+    # pdf: True (the whole document), "body" (--body-only) or False (--no-pdf)
+    return Inputs(spec, digest, files, {"pdf": pdf if pdf == BODY_ONLY else bool(pdf)},
+                  tool_inputs())
 
 
 def stamp_path(out_dir: Path) -> Path:
@@ -328,7 +333,8 @@ def out_dir_for(spec: Path, out_root: Path) -> Path:
     return out_root / safe_stem(spec)
 
 
-def check_up_to_date(spec: Path, out_root: Path, *, pdf: bool) -> tuple[Outcome | None, list[str]]:
+def check_up_to_date(spec: Path, out_root: Path, *, pdf: bool | str
+                     ) -> tuple[Outcome | None, list[str]]:
     """(Outcome for a skip, []) when the spec's outputs are current, else (None, reasons)."""
     start = time.perf_counter()
     out_dir = out_dir_for(spec, out_root)
@@ -345,7 +351,7 @@ def check_up_to_date(spec: Path, out_root: Path, *, pdf: bool) -> tuple[Outcome 
     ), []
 
 
-def build_incremental(spec: Path, out_root: Path, *, pdf: bool = True, force: bool = False,
+def build_incremental(spec: Path, out_root: Path, *, pdf: bool | str = True, force: bool = False,
                       why: list[str] | None = None) -> Outcome:
     """Build one spec unless it is up to date; write the stamp last. Raises DocgenError."""
     if not force and why is None:

@@ -16,10 +16,14 @@ from ..trace import TracedValue
 from ..verify.stresses import pairs as initial_vs_verified
 from . import filters
 from .bom import bom_rows
+from .derivation import chains, trace_matrix
 from .mathsvg import formula_data_uri
 from .netlist import netlist
-from .summary import summary_notes
 from .results_json import insulation_facts
+from .review import check_table, decisions, is_split, open_points, rail_names, stress_table
+from .signoff import revision_history, signoff_rows
+from .sources import Citations, basis_word
+from .summary import summary_notes
 
 
 @lru_cache(maxsize=1)
@@ -168,7 +172,21 @@ MC_QUANTITIES = {
 }
 
 
-def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
+def _citations(design: Design) -> tuple[Citations, dict[str, Any]]:
+    """References numbered by first use: the body's cautions and assumptions, then the
+    derivations and the equation catalogue of the appendices."""
+    cite = Citations()
+    cited = {
+        "cautions": {c.id: cite.cite(c.source) for c in design.cautions},
+        "assumptions": {a.id: cite.cite(a.source) for a in design.assumptions},
+    }
+    cited["chains"] = chains(design, cite)
+    cited["equations"] = {e.id: {"refs": cite.cite(e.source), "basis": basis_word(e.source)}
+                          for e in design.equations.values()}
+    return cite, cited
+
+
+def context(design: Design, plots: dict[str, str], body_only: bool = False) -> dict[str, Any]:
     spec = design.requirements
     values: list[TracedValue] = list(design.values.values())
     by_stage: dict[str, list[dict[str, Any]]] = {}
@@ -196,7 +214,23 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
                "engine.regulator_power", "engine.zener_power", "engine.resistor_power",
                "engine.transformer_current", "engine.va_nominal", "engine.efficiency",
                "reservoir.life"]
+    cite, cited = _citations(design)
+    trace_rows = traceability(design)
     return {
+        "body_only": body_only,
+        "split": is_split(design),
+        "rails": rail_names(design),
+        "document": spec.document,
+        "signoff": signoff_rows(spec),
+        "history": revision_history(spec, design.spec_path),
+        "stress_rows": stress_table(design),
+        "check_rows": check_table(design),
+        "decisions": decisions(design),
+        "open_points": open_points(design),
+        "chains": cited["chains"],
+        "cited": cited,
+        "references": cite.entries(),
+        "trace_matrix": trace_matrix(design, trace_rows),
         "d": design,
         "spec": spec,
         "project": spec.project,
@@ -208,12 +242,13 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
         "attention": [c for c in checks_sorted if c.status != "pass"],
         "key_values": [design.values[k] for k in key_ids if k in design.values],
         "summary_notes": summary_notes(design),
+        "initial_pairs": verified,
         "parts": design.parts,
         "cautions": design.cautions,
         "assumptions": design.assumptions,
         "sources": sources,
         "equations": sorted(design.equations.values(), key=lambda e: e.id),
-        "trace_rows": traceability(design),
+        "trace_rows": trace_rows,
         "figures": [
             {"src": _svg_uri(plots[name]), "caption": _caption(design, name, caption),
              "section": section}
@@ -234,8 +269,10 @@ def context(design: Design, plots: dict[str, str]) -> dict[str, Any]:
     }
 
 
-def render_html(design: Design, plots: dict[str, str], medium: str = "screen") -> str:
-    """The report as one HTML file: ``screen`` for report.html, ``print`` for the PDF."""
+def render_html(design: Design, plots: dict[str, str], medium: str = "screen",
+                body_only: bool = False) -> str:
+    """The report as one HTML file: ``screen`` for report.html, ``print`` for the PDF.
+    ``body_only`` leaves the appendices out (the PDF of ``--body-only``)."""
     if medium not in MEDIA:
         raise ValueError(f"unknown medium {medium!r}; expected one of {MEDIA}")
     if medium == "print":
@@ -247,7 +284,8 @@ def render_html(design: Design, plots: dict[str, str], medium: str = "screen") -
     # of the design can be taken for one.
     slots = {"mark": f"@formula-{secrets.token_hex(8)}-", "latex": []}
     page = environment().get_template("report.html.j2").render(
-        css=css, medium=medium, formula_slots=slots, **context(design, plots))
+        css=css, medium=medium, formula_slots=slots,
+        **context(design, plots, body_only=body_only))
     if not slots["latex"]:
         return page
     from .mathsvg import prefetch

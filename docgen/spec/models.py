@@ -68,6 +68,34 @@ class Project(Section):
     demo: bool = Field(default=False, description="Marks the file as invented demo data.")
 
 
+class Revision(Section):
+    revision: str = Field(min_length=1, max_length=20, description="Revision letter or number.")
+    date: str = Field(default="", max_length=40, description="Date of the revision, as written.")
+    author: str = Field(default="", max_length=120, description="Who made the revision.")
+    text: str = Field(default="", max_length=1000, description="What changed.")
+
+
+class Document(Section):
+    """Review data printed on the cover: status, sign-off and revision history. Every field is
+    optional; an empty name or date is printed as a blank line to sign on."""
+
+    status: str = Field(default="draft", max_length=40,
+                        description="Document status printed on the cover (e.g. draft, for "
+                        "review, released).")
+    prepared_by: str = Field(default="", max_length=120, description="Name of the preparer.")
+    prepared_date: str = Field(default="", max_length=40, description="Date prepared.")
+    checked_by: str = Field(default="", max_length=120, description="Name of the checker.")
+    checked_date: str = Field(default="", max_length=40, description="Date checked.")
+    approved_by: str = Field(default="", max_length=120, description="Name of the approver.")
+    approved_date: str = Field(default="", max_length=40, description="Date approved.")
+    revisions: list[Revision] = Field(
+        default_factory=list, max_length=200,
+        description="Revision history ([[document.revisions]] tables); commits of the file in "
+        "a git repository are listed beside them.")
+    git_history: bool = Field(default=True, description="List the git commits that touched "
+                              "the requirements file when it is in a git repository.")
+
+
 # Common nominal supplies: (nominal V, frequency Hz, low tolerance, high tolerance, basis).
 MAINS_PRESETS: dict[str, tuple[float, float, float, float, str]] = {
     "230V-50Hz": (230.0, 50.0, 0.10, 0.10, "IEC 60038:2009, 230 V +/-10 %"),
@@ -620,6 +648,7 @@ class Requirements(Section):
 
     schema_: Literal[1] = Field(alias="schema", description="File format version; write 1.")
     project: Project
+    document: Document = Field(default_factory=Document)
     mains: Mains = Field(default_factory=Mains)
     environment: Environment = Field(default_factory=Environment)
     transformer: Transformer = Field(default_factory=Transformer)

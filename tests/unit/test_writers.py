@@ -88,6 +88,7 @@ def test_html_context_traces_each_check_back_to_its_inputs():
     from types import SimpleNamespace
 
     from docgen.render.html import context, traceability
+    from docgen.spec.models import Document
     from docgen.trace import Equation
 
     L = Ledger()
@@ -105,7 +106,7 @@ def test_html_context_traces_each_check_back_to_its_inputs():
     d = dataclasses.replace(hand_design(), values=dict(L.values), equations=dict(L.equations),
                             checks=checks, requirements=SimpleNamespace(
                                 project="p", rectifier=SimpleNamespace(topology="bridge"),
-                                output=[]))
+                                output=[], document=Document()))
     rows = {r["value"].id: r for r in traceability(d)}
     assert set(rows) == {"a", "b", "d"}
     assert rows["a"]["equations"] == ["t.sum"]
