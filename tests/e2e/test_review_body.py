@@ -12,7 +12,7 @@ from pathlib import Path
 
 import pytest
 
-from docgen.build import build_one
+from docgen.jobs.build import build_one
 from docgen.cli import main
 from docgen.render.derivation import chains
 from docgen.render.html import render_html
