@@ -11,13 +11,13 @@ theirs stays a failing check and the candidate is infeasible.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field, fields
+from dataclasses import dataclass, field
 from typing import Any
 
 import numpy as np
 
 from ..design import Check
-from ..engine import Circuit, simulate, switch_on
+from ..engine import concat_circuits, simulate, switch_on
 from ..errors import DocgenError, InfeasibleDesign
 from ..pipeline import MAX_PASSES, size_pass
 from ..stages.context import SizingContext
@@ -39,8 +39,6 @@ from ..verify.evaluate import engine_checks, protection_checks
 from ..verify.refine import raise_floors
 from ..verify.worst import worst_corner
 from .space import Candidate, count
-
-_NUMERIC = tuple(f.name for f in fields(Circuit) if f.name not in ("topology", "load"))
 
 
 @dataclass
@@ -127,17 +125,6 @@ def verify(cands: list[Candidate], specs: list, library, spec_path: str, reg,
     return [st.verdict for st in states]
 
 
-def _broadcast(circuit: Circuit, n: int) -> dict[str, np.ndarray]:
-    return {name: np.broadcast_to(np.asarray(getattr(circuit, name), dtype=float), (n,))
-            for name in _NUMERIC}
-
-
-def _joined(circuits: list[tuple[Circuit, int]]) -> Circuit:
-    """One circuit holding every candidate's points in turn (same topology and load kind)."""
-    parts = [_broadcast(c, n) for c, n in circuits]
-    first = circuits[0][0]
-    return Circuit(topology=first.topology, load=first.load,
-                   **{name: np.concatenate([p[name] for p in parts]) for name in _NUMERIC})
 
 
 def _steady(live: list[_State], topology: str, reg) -> None:
@@ -147,7 +134,7 @@ def _steady(live: list[_State], topology: str, reg) -> None:
     pts = [corner_points(st.L, reg) for st in live]
     circuits = [(design_circuit(st.L, p, topology, reg), len(p))
                 for st, p in zip(live, pts, strict=True)]
-    ss = simulate(_joined(circuits))
+    ss = simulate(concat_circuits([c for c, _ in circuits]))
     start = 0
     for st, p in zip(live, pts, strict=True):
         sl = slice(start, start + len(p))
@@ -176,7 +163,8 @@ def _surge(live: list[_State], topology: str, reg) -> None:
         surge_points(st.cr.corners, st.cr.corner_metric("i_d_peak")) for st in live]
     circuits = [(design_circuit(st.L, sub, topology, reg), len(sub))
                 for st, (sub, _) in zip(live, subs, strict=True)]
-    so = switch_on(_joined(circuits), steps_per_period=SURGE_STEPS, max_cycles=SURGE_CYCLES,
+    so = switch_on(concat_circuits([c for c, _ in circuits]), steps_per_period=SURGE_STEPS,
+                   max_cycles=SURGE_CYCLES,
                    settle_peak=np.concatenate([ref for _, ref in subs]))
     start = 0
     for st, (sub, _) in zip(live, subs, strict=True):
