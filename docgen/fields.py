@@ -6,7 +6,7 @@ from typing import Any
 
 from pydantic import BaseModel
 
-from .spec.models import LinearRegulator, Output, PassTransistor, Requirements, Zener
+from .spec.output import LinearRegulator, Output, PassTransistor, Requirements, Zener
 from .units import format_quantity
 
 HEADER = """\

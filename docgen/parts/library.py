@@ -88,7 +88,7 @@ from pydantic import BaseModel, ValidationError
 
 from ..errors import SpecError, SpecIssue
 from ..textfile import decode, parse_toml, read_bounded
-from .models import (  # the public part models, re-exported
+from .regulation_parts import (  # the public part models, re-exported
     _MODELS,
     KINDS,
     Bridge,
