@@ -157,7 +157,7 @@ def _ledger_for_record(t_min: float = 0.0, t_max: float = 50.0):
 def test_library_part_with_two_points_is_fitted_through_both():
     from types import SimpleNamespace
 
-    from docgen.parts.regulation_parts import Diode
+    from docgen.parts.power_parts import Diode
     from docgen.spec.power_stages import Rectifier
     from docgen.stages.diodes import record_diode
 
