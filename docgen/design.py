@@ -55,7 +55,7 @@ class Design:
     spec_path: str
     spec_text: str
     spec_sha256: str
-    requirements: Any  # docgen.spec.models.Requirements
+    requirements: Any  # docgen.spec.requirements.Requirements
     stages: list[Stage]
     values: dict[str, TracedValue]
     equations: dict[str, Equation]

@@ -6,13 +6,14 @@ from typing import Any
 
 from pydantic import BaseModel
 
-from .spec.models import LinearRegulator, Output, PassTransistor, Requirements, Zener
+from .spec.output import LinearRegulator, Output, PassTransistor, Zener
+from .spec.requirements import Requirements
 from .units import format_quantity
 
 HEADER = """\
 # Requirements file reference
 
-Generated from `docgen/spec/models.py` by `python -m docgen.fields > docs/requirements.md`;
+Generated from the models in `docgen/spec/` by `python -m docgen.fields > docs/requirements.md`;
 a test keeps it in step with the code. Quantities are written with units ("230 V", "40 mA",
 "4700 uF", "10 %", "45 degC") or as plain SI numbers (volts, amperes, farads, ohms, watts,
 hertz, seconds; temperatures in degrees Celsius; ratios as fractions). A field marked

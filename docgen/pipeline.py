@@ -23,7 +23,7 @@ from .parts.bom_lines import bom_lines
 from .parts.location import library_for
 from .regulators import all_kinds, regulator
 from .spec import LoadedSpec
-from .spec.models import Requirements
+from .spec.requirements import Requirements
 from .stages import (
     holdup,
     insulation,

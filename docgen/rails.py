@@ -18,7 +18,7 @@ from . import standards
 from .design import Check, Design, Stage
 from .errors import InfeasibleDesign
 from .spec import LoadedSpec
-from .spec.models import Requirements
+from .spec.requirements import Requirements
 from .trace import Assumption, Ledger
 from .verify.checks import make_check, overall_status
 

@@ -64,7 +64,7 @@ def _describe_units(node: Any) -> Any:
 
 
 def requirements_schema() -> dict[str, Any]:
-    from .spec.models import Requirements
+    from .spec.requirements import Requirements
 
     raw = Requirements.model_json_schema(by_alias=True, mode="validation")
     schema = _describe_units(_drop_null(_inline(raw, raw.get("$defs", {}))))

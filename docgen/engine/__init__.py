@@ -39,7 +39,8 @@ conduction. Figures are NaN unless the status is 0.
 
 from .circuit import Circuit, concat_circuits
 from .inrush import SwitchOn, switch_on
-from .steady import STATUS_TEXT, SteadyState, simulate
+from .period_figures import SteadyState
+from .steady import STATUS_TEXT, simulate
 
 __all__ = ["Circuit", "concat_circuits", "STATUS_TEXT", "SteadyState", "SwitchOn", "simulate",
            "switch_on"]

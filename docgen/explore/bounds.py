@@ -21,7 +21,7 @@ import itertools
 import math
 from collections import Counter
 
-from ..spec.models import Requirements
+from ..spec.requirements import Requirements
 from ..topology import topology
 from .space import Axis, Candidate
 

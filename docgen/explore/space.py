@@ -13,7 +13,7 @@ from collections.abc import Iterator
 from dataclasses import dataclass
 from typing import Any
 
-from ..spec.models import Requirements
+from ..spec.requirements import Requirements
 
 # Discrete diodes per topology (a bridge package counts once).
 DIODES_PER_TOPOLOGY = {"bridge": 4, "center-tap": 2, "half-wave": 1}

@@ -88,25 +88,13 @@ from pydantic import BaseModel, ValidationError
 
 from ..errors import SpecError, SpecIssue
 from ..textfile import decode, parse_toml, read_bounded
-from .models import (  # the public part models, re-exported
-    _MODELS,
-    KINDS,
-    Bridge,
-    Capacitor,
-    Diode,
-    Fuse,
-    Heatsink,
-    LibraryInfo,
-    Part,
-    Regulator,
-    Resistor,
-    ResistorFamily,
-    Transformer,
-    Transistor,
-    Zener,
-    _PartBase,
-)
+
+# the part models below are re-exported (__all__): the library is their public face
+from .kinds import _MODELS, KINDS, Part
+from .part_base import LibraryInfo, _PartBase
+from .power_parts import Bridge, Capacitor, Diode, Fuse, Transformer
 from .readers import _show_raw
+from .regulation_parts import Heatsink, Regulator, Resistor, ResistorFamily, Transistor, Zener
 
 __all__ = [
     "SCHEMA",

@@ -1,6 +1,6 @@
 """Requirements file: models and loader."""
 
 from .loader import LoadedSpec, load_requirements
-from .models import Requirements
+from .requirements import Requirements
 
 __all__ = ["LoadedSpec", "Requirements", "load_requirements"]

@@ -14,7 +14,7 @@ from ..errors import SpecError, SpecIssue
 from ..textfile import SPEC_MAX_BYTES, decode, read_bounded
 from ..textfile import parse_toml as _parse_toml
 from ..units import show_raw
-from .models import Requirements
+from .requirements import Requirements
 
 MAX_BYTES = SPEC_MAX_BYTES
 

@@ -8,7 +8,7 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from ..errors import InfeasibleDesign, SpecError, SpecIssue
-from ..spec.models import Requirements
+from ..spec.requirements import Requirements
 from ..trace import Ledger
 
 

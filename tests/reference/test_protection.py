@@ -19,7 +19,7 @@ import pytest
 
 from docgen.pipeline import run
 from docgen.spec import load_requirements
-from docgen.spec.models import Requirements
+from docgen.spec.requirements import Requirements
 
 HEADER = 'schema = 1\n[project]\ntitle = "protection test"\ndocument_id = "REF-F"\n'
 ZENER_OUT = ('[[output]]\nname = "rail"\nvoltage = "5.6 V"\nload_max = "15 mA"\n'

@@ -90,7 +90,7 @@ def test_derating_defaults_are_the_documented_ones():
     # Common practice, no single source ([CP-CAP-VOLTAGE], [CP-ZENER], [CP-SELECTION-TABLES]):
     # capacitor voltage at most 80 % of rating, zener and resistor power at most 50 %, diode
     # V_RRM at least 2 x PIV.
-    from docgen.spec.models import Margins
+    from docgen.spec.margins import Margins
 
     m = Margins()
     assert (m.capacitor_voltage_derating, m.zener_power_derating, m.resistor_power_derating,

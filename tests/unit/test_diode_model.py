@@ -157,8 +157,8 @@ def _ledger_for_record(t_min: float = 0.0, t_max: float = 50.0):
 def test_library_part_with_two_points_is_fitted_through_both():
     from types import SimpleNamespace
 
-    from docgen.parts.models import Diode
-    from docgen.spec.models import Rectifier
+    from docgen.parts.power_parts import Diode
+    from docgen.spec.power_stages import Rectifier
     from docgen.stages.diodes import record_diode
 
     part = Diode(id="T-D2", v_rrm="100 V", i_f_avg="1 A", i_fsm="30 A", v_f="1.0 V",
@@ -178,7 +178,7 @@ def test_library_part_with_two_points_is_fitted_through_both():
 def test_file_drop_is_stated_at_the_charging_peaks_unless_a_current_is_given():
     from types import SimpleNamespace
 
-    from docgen.spec.models import Rectifier
+    from docgen.spec.power_stages import Rectifier
     from docgen.stages.diodes import record_diode
 
     for rect, i_f in ((Rectifier(), 1.5), (Rectifier(diode_drop_current="0.4 A"), 0.4)):

@@ -7,7 +7,7 @@ from typing import Annotated, Any
 import pytest
 from pydantic import BaseModel, TypeAdapter, ValidationError
 
-from docgen.spec.models import Requirements
+from docgen.spec.requirements import Requirements
 
 
 def _models(model: type[BaseModel], seen: set) -> list[type[BaseModel]]:

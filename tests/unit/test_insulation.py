@@ -43,7 +43,7 @@ def _spec(**ins):
     fields = set(ins)
     defaults = {"equipment_class": "II", "overvoltage_category": "II", "pollution_degree": 2,
                 "material_group": "IIIb"}
-    from docgen.spec.models import Insulation
+    from docgen.spec.margins import Insulation
 
     model = Insulation(**ins)
     assert model.model_fields_set == fields

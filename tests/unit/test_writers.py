@@ -88,7 +88,7 @@ def test_html_context_traces_each_check_back_to_its_inputs():
     from types import SimpleNamespace
 
     from docgen.render.html import context, traceability
-    from docgen.spec.models import Document
+    from docgen.spec.project import Document
     from docgen.trace import Equation
 
     L = Ledger()
