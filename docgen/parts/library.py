@@ -87,6 +87,7 @@ from typing import Any
 from pydantic import BaseModel, ValidationError
 
 from ..errors import SpecError, SpecIssue
+from ..input_words import missing_key, unknown_key
 from ..textfile import decode, parse_toml, read_bounded
 
 # the part models below are re-exported (__all__): the library is their public face
@@ -249,12 +250,10 @@ def _issues_from(error: ValidationError, model: type[BaseModel], prefix: str,
             message = str(err["ctx"]["error"]) if "ctx" in err else err["msg"]
         elif kind == "missing":
             key = str(loc[-1]) if loc else ""
-            message = f"missing required field; expected {_expects(model, key)}"
+            message = missing_key(_expects(model, key))
         elif kind == "extra_forbidden":
             key = str(loc[-1]) if loc else ""
-            hint = _did_you_mean(key, _field_keys(model))
-            message = f"unknown field {key!r}" + (
-                hint or f"; known fields: {', '.join(_field_keys(model))}")
+            message = unknown_key(key, _field_keys(model))
         else:
             message = err["msg"]
         issues.append(SpecIssue(_path(prefix, loc), message + suffix))

@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import difflib
 import hashlib
 from dataclasses import dataclass
 from pathlib import Path
@@ -11,6 +10,7 @@ from typing import Any
 from pydantic import BaseModel, ValidationError
 
 from ..errors import SpecError, SpecIssue
+from ..input_words import missing_key, unknown_key
 from ..textfile import SPEC_MAX_BYTES, decode, read_bounded
 from ..textfile import parse_toml as _parse_toml
 from ..units import show_raw
@@ -70,17 +70,9 @@ def _issue_from(error: dict[str, Any]) -> SpecIssue:
     kind = error["type"]
     if kind == "extra_forbidden":
         model = _model_at(loc)
-        known = _field_names(model) if model else []
-        key = str(loc[-1])
-        hint = difflib.get_close_matches(key, known, n=1) if len(key) <= 100 else []
-        text = f"unknown key {show_raw(key)}"
-        if hint:
-            text += f"; did you mean '{hint[0]}'?"
-        elif known:
-            text += f"; expected one of: {', '.join(known)}"
-        return SpecIssue(where, text)
+        return SpecIssue(where, unknown_key(str(loc[-1]), _field_names(model) if model else []))
     if kind == "missing":
-        return SpecIssue(where, "required but missing")
+        return SpecIssue(where, missing_key())
     message = error["msg"]
     for prefix in ("Value error, ", "Assertion failed, "):
         if message.startswith(prefix):
@@ -106,7 +98,7 @@ def load_requirements(path: str | Path) -> LoadedSpec:
     data = parse_toml(path, text)
     if "schema" not in data:
         raise SpecError(
-            str(path), [SpecIssue("schema", "required but missing; write 'schema = 1' at the top")]
+            str(path), [SpecIssue("schema", missing_key() + "; write 'schema = 1' at the top")]
         )
     if type(data.get("schema")) is not int or data["schema"] != 1:
         raise SpecError(

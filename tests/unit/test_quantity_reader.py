@@ -191,3 +191,24 @@ class TestReader:
     def test_unknown_sign_is_refused(self):
         with pytest.raises(ValueError, match="sign"):
             QuantityReader("voltage", "V", sign="negative")
+
+
+def test_a_misspelt_key_reads_the_same_in_both_files(tmp_path):
+    """Both files name the unknown key and the nearest real one, in the same words."""
+    _, spec_text = spec_issue(tmp_path, 'tolerance = "10 %"', 'tolerence = "10 %"')
+    with pytest.raises(SpecError) as info:
+        parse_library(LIBRARY.replace('tolerance = "20 %"', 'tolerence = "20 %"', 1), "lib.toml")
+    lib_texts = [i.message for i in info.value.issues]
+    assert spec_text == "unknown key 'tolerence'; did you mean 'tolerance'?"
+    assert "unknown key 'tolerence'; did you mean 'tolerance'? (part 'C1')" in lib_texts
+
+
+def test_a_missing_key_reads_the_same_in_both_files(tmp_path):
+    """A required key left out: "required but missing" in both, the library adding what it takes."""
+    where, spec_text = spec_issue(tmp_path, 'ripple_max = "50 mV"', "")
+    assert (where, spec_text) == ("output[0].ripple_max", "required but missing")
+    with pytest.raises(SpecError) as info:
+        parse_library(LIBRARY.replace('voltage = "35 V"\n', "", 1), "lib.toml")
+    (issue,) = info.value.issues
+    assert issue.message.startswith("required but missing; expected ")
+    assert issue.message.endswith("(part 'C1')")
