@@ -71,6 +71,9 @@ class Design:
     samples: dict[str, Any] = field(default_factory=dict)  # metric -> array, for histograms
     library: tuple[str, str] | None = None  # (path, sha256) of the parts library used
     tool_version: str = ""
+    # the design-space search that chose this design (docgen.explore.document.tradeoff_data),
+    # drawn as a trade-off figure; None for a design sized stage by stage
+    search_tradeoff: dict[str, Any] | None = None
 
     def counts(self) -> dict[str, int]:
         out = {"pass": 0, "warn": 0, "fail": 0}

@@ -249,6 +249,7 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
                                # Monte Carlo summary is in monte_carlo["negative_rail"]
         "library": a.library,
         "tool_version": a.tool_version,
+        "search_tradeoff": None,  # the search handles single-rail supplies only
     }
     return Design(**{name: merged[name] for name in MERGED_FIELDS})
 
@@ -258,4 +259,4 @@ def _merge(loaded: LoadedSpec, spec: Requirements, a: Design, b: Design, library
 MERGED_FIELDS = ("spec_path", "spec_text", "spec_sha256", "requirements", "stages", "values",
                  "equations", "checks", "parts", "assumptions", "cautions", "status",
                  "infeasible_reason", "waveforms", "corners", "monte_carlo", "samples",
-                 "library", "tool_version")
+                 "library", "tool_version", "search_tradeoff")

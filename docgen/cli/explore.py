@@ -160,22 +160,12 @@ def _best_yield(loaded, result) -> str:
 
 
 def _plot(result, currency: str, versus: str = "dissipation") -> str:
-    from ..explore.objectives import value
-    from ..explore.text import front_points
+    from ..explore.document import tradeoff_data
     from ..render.explore_plot import tradeoff_svg
 
-    pts, front = front_points(result, "cost", versus)
-    g = result.greedy
-    b = result.best
-
-    def xy(v):
-        return (value(v, "cost"), value(v, versus))
-
-    bad = [xy(v) for v in result.verdicts
-           if not v.feasible and all(math.isfinite(t) for t in xy(v))]
-    return tradeoff_svg(pts, front, xy(g) if g is not None and g.feasible else None,
-                        xy(b) if b is not None else None, y=versus, currency=currency,
-                        infeasible=bad)
+    data = tradeoff_data(result, currency, versus)
+    return tradeoff_svg(data.pop("points"), data.pop("front"), data.pop("greedy"),
+                        data.pop("chosen"), **data)
 
 
 def build_best(specs: list[Path], args) -> int:

@@ -74,6 +74,12 @@ def draw_plots(design: Design) -> dict[str, str]:
             f"Negative rail, trough corner (magnitudes): {design.waveforms['neg_trough']['corner']}",
             {"v_out_hi": v["neg.output.v_upper_limit"].value,
              "v_out_lo": v["neg.output.v_lower_limit"].value}))
+    if design.search_tradeoff:
+        from .explore_plot import tradeoff_svg
+
+        data = dict(design.search_tradeoff)
+        plots["search_tradeoff"] = tradeoff_svg(data.pop("points"), data.pop("front"),
+                                                data.pop("greedy"), data.pop("chosen"), **data)
     if design.samples:
         plots["monte_carlo"] = figure_svg(histogram_plot(design.samples,
                                                          histogram_panels(design)))

@@ -135,6 +135,9 @@ FIGURES = {
     "waveforms_nominal": ("waveforms", "Nominal corner: {corner}."),
     "waveforms_trough_neg": ("waveforms", "Negative rail at its trough corner ({corner}), shown "
                              "as magnitudes."),
+    "search_tradeoff": ("decisions", "Design-space search: every verified candidate's part cost "
+                        "against its worst-case heat; the Pareto front, the greedy design and "
+                        "the chosen one are marked."),
     "monte_carlo": ("monte-carlo", "Monte Carlo distributions; dashed lines are the limits."),
 }
 # The waveform each figure shows (its corner names the caption's).

@@ -60,6 +60,12 @@ def test_build_design_best_states_the_search(tmp_path, capsys):
     assert "24 candidates" in search[0]["text"]
     html = (out / "explore-demo" / "report.html").read_text()
     assert "chosen by the design-space search" in html
+    # the trade-off figure of the search, with the chosen design marked, is in the decisions
+    decisions = html[html.index('<section id="decisions">'):]
+    decisions = decisions[:decisions.index("</section>")]
+    assert "Design-space search: every verified candidate" in decisions
+    plot = (out / "explore-demo" / "plots" / "search_tradeoff.svg").read_text()
+    assert "<!-- chosen design (search best) -->" in plot  # matplotlib keeps legend text as comments
     # the fixed discrete diodes of the bridge count four in the BOM, as a library pick does
     bom = (out / "explore-demo" / "bom.csv").read_text(encoding="utf-8-sig")
     assert '"4 x Rectifier diode, 1 A, 400 V, axial (demo)"' in bom
