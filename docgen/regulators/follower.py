@@ -76,14 +76,9 @@ def size_needs(ctx: SizingContext, L: Ledger) -> None:
     ))
     L.given("output.headroom", r"V_{hr}", out.headroom, "V", "Headroom across R1 at the trough",
             defaulted="headroom" not in out.model_fields_set)
-    L.calc("zener.delta_t", eq.ZENER_DT, r"\Delta T_Z", "K", "Temperature excursion from 25 degC",
-           {"h": "env.t_max", "c": "env.t_min"}, lambda h, c: max(abs(h - 25.0), abs(c - 25.0)))
-    L.calc("zener.v_max", eq.ZENER_HIGH, r"V_{Z,max}", "V", "Highest zener voltage",
-           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
-           lambda v, t, a, d: v * (1 + t) + abs(a) * v * d)
-    L.calc("zener.v_min", eq.ZENER_LOW, r"V_{Z,min}", "V", "Lowest zener voltage",
-           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
-           lambda v, t, a, d: v * (1 - t) - abs(a) * v * d)
+    from .zener_part import voltage_window
+
+    voltage_window(L)
     L.calc("zener.i_min", eq.ZENER_IZMIN, r"I_{Z,min}", "A", "Minimum zener current",
            {"k": "zener.k_zk", "i": "zener.i_zk"}, lambda k, i: k * i)
     L.calc("q.i_b_max", eq.BASE_CURRENT, r"I_{B,max}", "A", "Largest base current",

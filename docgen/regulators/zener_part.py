@@ -183,6 +183,19 @@ def zener_rating(ctx: SizingContext, L: Ledger, need_id: str) -> None:
            lambda p, j, t, r: max(0.0, min(p, (j - t) / r)))
 
 
+def voltage_window(L: Ledger) -> None:
+    """The zener voltage's extremes over its tolerance and the temperature excursion from 25 degC
+    (the shunt and the follower both regulate on it)."""
+    L.calc("zener.delta_t", eq.ZENER_DT, r"\Delta T_Z", "K", "Temperature excursion from 25 degC",
+           {"h": "env.t_max", "c": "env.t_min"}, lambda h, c: max(abs(h - 25.0), abs(c - 25.0)))
+    L.calc("zener.v_max", eq.ZENER_HIGH, r"V_{Z,max}", "V", "Highest zener voltage",
+           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
+           lambda v, t, a, d: v * (1 + t) + abs(a) * v * d)
+    L.calc("zener.v_min", eq.ZENER_LOW, r"V_{Z,min}", "V", "Lowest zener voltage",
+           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
+           lambda v, t, a, d: v * (1 - t) - abs(a) * v * d)
+
+
 def self_heating(L: Ledger) -> None:
     """The zener's own dissipation heats its junction above ambient: its voltage moves by
     alpha V_Z P_Z R_thJA (common practice), up for a positive coefficient, down for a

@@ -25,6 +25,7 @@ from .zener_part import (
     record_power_deratings,
     self_heating,
     standard_voltage,
+    voltage_window,
     with_floor,
     zener_rating,
 )
@@ -92,14 +93,7 @@ def size_needs(ctx: SizingContext, L: Ledger) -> None:
             "Minimum zener current as a multiple of I_ZK",
             defaulted="min_current_factor" not in explicit_z)
 
-    L.calc("zener.delta_t", eq.ZENER_DT, r"\Delta T_Z", "K", "Temperature excursion from 25 degC",
-           {"h": "env.t_max", "c": "env.t_min"}, lambda h, c: max(abs(h - 25.0), abs(c - 25.0)))
-    L.calc("zener.v_max", eq.ZENER_HIGH, r"V_{Z,max}", "V", "Highest zener voltage",
-           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
-           lambda v, t, a, d: v * (1 + t) + abs(a) * v * d)
-    L.calc("zener.v_min", eq.ZENER_LOW, r"V_{Z,min}", "V", "Lowest zener voltage",
-           {"v": "zener.v_nom", "t": "zener.tol", "a": "zener.tempco", "d": "zener.delta_t"},
-           lambda v, t, a, d: v * (1 - t) - abs(a) * v * d)
+    voltage_window(L)
     L.calc("zener.v_knee_max", eq.ZENER_KNEE, r"V_{Z0,max}", "V",
            "Knee voltage of the zener model, upper extreme",
            {"v": "zener.v_max", "r": "zener.r_z", "i": "zener.i_zt"}, lambda v, r, i: v - r * i)
