@@ -150,7 +150,8 @@ def standard_zener_voltage(target: float, fits, series: str = "E24") -> tuple[fl
     if target <= 0:
         raise ValueError("the zener voltage must be positive")
     decade = 10.0 ** math.floor(math.log10(target))
-    cands = sorted({round(m * decade * k, 6) for m in series_values(series)
+    # six significant figures, not six decimals: a target of any size has candidates
+    cands = sorted({float(f"{m * decade * k:.6g}") for m in series_values(series)
                     for k in (0.1, 1.0, 10.0)})
     cands = [c for c in cands if target / 1.25 <= c <= target * 1.25]
     cands.sort(key=lambda c: (abs(c - target), c))

@@ -4,6 +4,8 @@ engine's currents."""
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 
 from .. import equations as eq
@@ -81,6 +83,11 @@ def engine_checks(ctx: SizingContext, L: Ledger, cr: CornerResult, reg) -> list[
     # Nominal-corner figures for the summary: efficiency, VA, ripple current.
     k = cr.nominal_index
     where = cr.corners.name[k]
+    if not (bool(cr.converged[k]) and math.isfinite(float(cr.metrics["p_in"][k]))):
+        raise InfeasibleDesign(
+            f"the waveform engine found no steady state at the nominal corner ({where}); no "
+            "efficiency or nominal figure is reported that was not converged to; check the "
+            "transformer (winding resistance, leakage) and the load")
     for metric, vid, sym, unit, title in (
         ("p_in", "engine.p_in_nominal", r"P_{in}", "W", "Input power (engine, nominal)"),
         ("p_out", "engine.p_out_nominal", r"P_{out}", "W", "Output power (engine, nominal)"),

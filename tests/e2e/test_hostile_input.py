@@ -344,3 +344,22 @@ def test_tiny_numbers_are_printed_short(tmp_path, capsys):
 
     assert format_quantity(1e-308, "A") == "1e-308 A"
     assert format_quantity(0.047, "A") == "47 mA"  # everyday values unchanged
+
+
+# ------------------------------------------------------- found by bench/robustness.py this round
+def test_a_supply_with_no_nominal_steady_state_is_infeasible_not_a_traceback(tmp_path, capsys):
+    """A winding resistance of 839 kohm leaves the engine no steady state at the nominal corner:
+    the efficiency would be NaN; the design is reported infeasible (exit 1) and says why."""
+    assert "\n[transformer]" not in BASE
+    code, out, err = _check(tmp_path, BASE + '\n[transformer]\nwinding_resistance = 839021.8\n',
+                            capsys)
+    assert code == 1, out + err
+    assert "INFEASIBLE" in out + err and "nominal corner" in out + err
+
+
+def test_a_vanishing_output_voltage_is_infeasible_not_a_traceback(tmp_path, capsys):
+    """1e-308 V: no E24 zener candidate used to survive rounding to six decimals."""
+    text = BASE.replace('voltage = "9.1 V"', "voltage = 1e-308", 1)
+    assert text != BASE
+    code, out, err = _check(tmp_path, text, capsys)
+    assert code in (1, 2), out + err

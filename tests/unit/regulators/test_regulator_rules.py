@@ -356,3 +356,14 @@ def test_not_covered_statements_are_in_the_assumptions(follower, us5v):
     assert "safe operating area" in text and "secondary breakdown" in text
     text = next(a.text for a in us5v.assumptions if a.id == "assume.not_covered.regulator")
     assert "current limit" in text
+
+
+def test_standard_zener_voltage_has_candidates_at_any_scale():
+    """IEC 60063 E24 steps scale by decades: a target of any size has a nearest step (the
+    candidates were once rounded to six decimals, which left none below about 1 uV)."""
+    from docgen.regulators.rules import standard_zener_voltage
+
+    for target in (1e-300, 1e-9, 9.1, 9.1e6):
+        v, fits = standard_zener_voltage(target, lambda v: True)
+        assert fits and target / 1.25 <= v <= target * 1.25
+    assert standard_zener_voltage(9.0, lambda v: True)[0] == pytest.approx(9.1)
